@@ -196,3 +196,18 @@ pls_fluid_shear_rate (const pls_fluid_params *f, double stress)
     }
   return g;
 }
+
+void
+pls_fluid_carreau_form (const pls_fluid_params *in, pls_fluid_params *out)
+{
+  carreau_form c;
+  pls_fluid_params tmp = *in;
+
+  carreau_of (in, &c);
+  tmp.law = PLS_VISCOSITY_CARREAU;
+  tmp.mu_infinity = c.mu_inf;
+  tmp.mu_zero = c.mu_inf + c.dmu;
+  tmp.lambda = c.lambda;
+  tmp.flow_index = c.n;
+  *out = tmp;
+}

@@ -46,7 +46,8 @@ typedef struct
   double wall_shear_rate;  /* |apparent wall shear rate| 8V/D corrected
                               to the true wall rate for the law, 1/s      */
   double wall_shear_stress;/* |tau_w|, Pa                                 */
-  double darcy_friction;   /* Darcy friction factor (4x Fanning)          */
+  double darcy_friction;   /* Darcy friction factor (4x Fanning); 0 at
+                              zero flow                                   */
   pls_regime regime;
 } pls_line_state;
 
@@ -81,22 +82,29 @@ double pls_fluid_shear_stress (const pls_fluid_params *f, double shear_rate, dou
 /* The inverse: shear rate (1/s) at a shear stress (Pa, >= 0), by a
  * safeguarded Newton iteration (tau(gamma) is strictly increasing). */
 double pls_fluid_shear_rate (const pls_fluid_params *f, double stress);
+/* The same fluid written in the Carreau form (out may equal in): the
+ * power law becomes mu_0 = K gc^(n-1), mu_inf = 0, lambda = 1/gc; a
+ * Newtonian fluid mu_0 = mu, lambda = 0.  Hot loops use it to skip the
+ * per-call conversion. */
+void pls_fluid_carreau_form (const pls_fluid_params *in, pls_fluid_params *out);
 /* Viscosity as the shear rate goes to zero (Pa s, finite and > 0). */
 double pls_fluid_zero_shear_viscosity (const pls_fluid_params *f);
 /* Nonzero when the viscosity does not depend on the shear rate (Newtonian,
  * or Carreau with lambda = 0 or n = 1). */
 int pls_fluid_is_newtonian (const pls_fluid_params *f);
 
-/* Hooper 2-K constants (Hooper, Chem. Eng., Aug. 24, 1981, table 1).  The
- * values are from memory, not checked against the paper: treat them as
- * typical, and let the user override them per part. */
+/* Hooper 2-K constants (Hooper, Chem. Eng., Aug. 24, 1981, p. 97, table).
+ * Written down from memory, then compared with the same table as
+ * transcribed in the Python library `fluids` (C. Bell, fluids/fittings.py,
+ * the `Hooper` dictionary), which agrees on every value below; not checked
+ * against the paper itself.  Typical values: the user may override them. */
 #define PLS_HOOPER_TEE_RUN_K1         200.0  /* tee, flow through run, threaded */
 #define PLS_HOOPER_TEE_RUN_KINF       0.10
 #define PLS_HOOPER_TEE_BRANCH_K1      500.0  /* tee used as elbow, threaded     */
 #define PLS_HOOPER_TEE_BRANCH_KINF    0.70
 #define PLS_HOOPER_ELBOW_90_K1        800.0  /* 90-degree elbow, r/D = 1, thr.  */
 #define PLS_HOOPER_ELBOW_90_KINF      0.40
-#define PLS_HOOPER_BALL_VALVE_K1      300.0  /* ball/gate valve, full bore      */
+#define PLS_HOOPER_BALL_VALVE_K1      300.0  /* gate/ball valve, full line size */
 #define PLS_HOOPER_BALL_VALVE_KINF    0.10
 #define PLS_HOOPER_GLOBE_VALVE_K1     1500.0 /* globe (seat) valve, standard    */
 #define PLS_HOOPER_GLOBE_VALVE_KINF   4.0
@@ -132,7 +140,10 @@ void pls_nozzle_drop (const pls_fluid_params *f, const pls_nozzle_params *p,
                       double q, pls_drop *out);
 
 /* Lichtarowicz et al. discharge coefficient at a Reynolds number (orifice
- * bore based) for the nozzle's l/d and its high-Re Cd. */
+ * bore based) for the nozzle's l/d and its high-Re Cd.  The Reynolds number
+ * is that of the ideal jet velocity sqrt(2 dp / rho), U d / nu, as in the
+ * correlation (see pls-nozzle.c); 0 for reynolds <= 0.  A fixed-Cd nozzle
+ * returns its Cd. */
 double pls_nozzle_discharge_coefficient (const pls_nozzle_params *p, double reynolds);
 
 /* Valve held open (a closed valve is not an element of the solve). */

@@ -135,9 +135,12 @@ struct pls_steady_result
   unsigned char *elem_solved;  /* n_elements                               */
   unsigned char *elem_active;  /* n_elements                               */
   pls_element_detail *detail;  /* n_elements                               */
+  unsigned char *kind;         /* n_elements: pls_element_kind of each     */
   int converged, iterations;
   double pressure_change, flow_residual;
   pls_finding_list findings;
+  double t_analyse;            /* s: CHOLMOD set-up and symbolic analysis  */
+  double t_total;              /* s: the whole pls_solve_steady call       */
 };
 
 /* ---- topology (pls-topology.c) ----------------------------------------- */
@@ -163,3 +166,44 @@ pls_status pls__topology (const pls_network *net, const pls_steady_options *o,
 /* Appends the design-check findings of a solved result. */
 pls_status pls__design_checks (const pls_network *net, const pls_steady_options *o,
                                pls_steady_result *r, const int *comp);
+
+/* ---- Newton core (pls-newton.c) ---------------------------------------- */
+
+typedef struct
+{
+  int elem;
+  int ca, cb;        /* matrix column of each end, -1 for a fixed end      */
+  double fa, fb;     /* piezometric pressure of a fixed end, Pa            */
+  long pa, pb, pab;  /* places in A->x: diagonal of ca, of cb, off-diagonal */
+} pls_link;
+
+typedef struct
+{
+  const pls_network *net;
+  const pls_allocator *alloc;
+  double air;
+  size_t m, nf;
+  pls_link *links;    /* m                                               */
+  int *col_node;      /* nf: node of each matrix column                  */
+  double *demand;     /* nf                                              */
+  double *q, *qt;     /* m: flows, trial flows                           */
+  double *h, *d;      /* m: drops and slopes at q                        */
+  double *ht, *dt;    /* m: at qt                                        */
+  double *dq;         /* m                                               */
+  double *p, *pt;     /* nf: piezometric pressures, trial                */
+  double *dp;         /* nf                                              */
+  double *res;        /* nf: mass imbalance                              */
+  int *ap, *ai;       /* pattern of the upper triangle, CSC              */
+  size_t nnz;
+} pls_work;
+
+/* Seconds on a monotone-enough clock (C11 timespec_get). */
+double pls__now (void);
+void pls__work_free (pls_work *w);
+/* Pattern of the upper triangle of the nodal matrix from w->links. */
+pls_status pls__pattern (pls_work *w);
+/* Newton iterations on the prepared work; fills r's summary fields and
+ * *t_analyse (seconds spent in CHOLMOD set-up and analysis). */
+pls_status pls__newton (pls_work *w, const pls_steady_options *o, double pscale,
+                        double fscale, pls_steady_result *r, double *t_analyse,
+                        pls_error *err);

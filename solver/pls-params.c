@@ -264,9 +264,9 @@ pls_pump_params_check (const pls_pump_params *p, char *why, size_t why_len)
   need_nonnegative (&c, p->friction_offset, "friction_offset", "a pressure >= 0 (Pa)");
   need_positive (&c, p->displacement, "displacement", "a positive volume (m^3)");
   need_positive (&c, p->max_cycle_rate, "max_cycle_rate", "a positive rate (1/s)");
-  /* m in [0.05, 20]: wider than any measured curve, and it keeps the
-   * regularised curve's slopes within double range. */
-  need_range (&c, p->curve_exponent, 0.05, 20.0, "curve_exponent", "in [0.05, 20]");
+  /* m in [0.1, 10]: wider than any measured curve, and it keeps the
+   * regularised curve's slopes within a sane range. */
+  need_range (&c, p->curve_exponent, 0.1, 10.0, "curve_exponent", "in [0.1, 10]");
   need_nonnegative (&c, p->changeover_time, "changeover_time", "a time >= 0 (s)");
   if (checker_ok (&c) && !(p->changeover_time * p->max_cycle_rate < 0.5))
     checker_fail (&c, "changeover_time", "shorter than half a double stroke (s)",

@@ -201,14 +201,15 @@ pls__topology (const pls_network *net, const pls_steady_options *o,
 
           if (nd < 0)
             continue;
-          if (!net->nodes[nd].fixed)
+          if (!net->nodes[nd].fixed
+              && !(p == 1 && !net->nodes[e->a].fixed && comp[e->a] == comp[nd]))
             {
               int r = comp[nd];
 
-              if (p == 1 && e->a >= 0 && !net->nodes[e->a].fixed && comp[e->a] == r)
-                continue;   /* counted once per element */
-              count[r]++;
-              if (first[r] < 0)
+              count[r]++;   /* once per element and part */
+              /* Name a pump first: it is what makes a part "no-reference". */
+              if (first[r] < 0 || (e->kind == PLS_ELEMENT_PUMP
+                                   && net->elements[first[r]].kind != PLS_ELEMENT_PUMP))
                 first[r] = (int) k;
             }
           if (pls_is_two_port (e))

@@ -438,6 +438,11 @@ typedef enum
  *  "precharge-too-high" precharge at or above the idle pressure (warning)
  *  "precharge-too-low"  precharge below precharge_low_fraction x max
  *                       working pressure (warning)
+ * "Can see", the reading of a gauge and the idle or max working pressure of
+ * an accumulator all mean the highest pressure the node can reach: its
+ * steady pressure or, while the air is on, the stall pressure of a running
+ * pump whose outlet reaches the node through open parts (less rho g dz),
+ * since with every applicator shut the line settles at stall. 
  *  "velocity-high"      line velocity above velocity_limit (warning)
  *  "shear-high"         line wall shear rate above shear_rate_limit (warning)
  */
