@@ -12,7 +12,7 @@ PRESSLINE_BUILD_PACKAGES="gcc meson ninja-build pkg-config libgtk-4-dev libxml2-
 # To test: Check, GSL (the independent reference), validators, a headless X
 # server with a session bus, PDF and image tools for the export checks.
 PRESSLINE_TEST_PACKAGES="check libgsl-dev libxml2-utils desktop-file-utils
-  appstream xvfb xauth dbus-daemon poppler-utils imagemagick"
+  appstream xvfb xauth dbus-daemon poppler-utils imagemagick locales"
 
 pressline_missing_packages ()
 {
