@@ -207,3 +207,71 @@ pls_status pls__pattern (pls_work *w);
 pls_status pls__newton (pls_work *w, const pls_steady_options *o, double pscale,
                         double fscale, pls_steady_result *r, double *t_analyse,
                         pls_error *err);
+
+/* ---- reusable steady workspace (pls-workspace.c, pls-newton.c) --------- */
+
+/* CHOLMOD's structs by tag, so this header needs no <cholmod.h>. */
+struct cholmod_common_struct;
+struct cholmod_sparse_struct;
+struct cholmod_factor_struct;
+struct cholmod_dense_struct;
+
+/* One link of the workspace's Newton core: 32 bytes, so a pass over 3e5
+ * links streams less memory than pls_link does. */
+typedef struct
+{
+  int elem;          /* element index                                       */
+  int ca, cb;        /* matrix column of each end, -1 for a fixed end      */
+  int pa, pb, pab;   /* places in A->x: diagonal of ca, of cb, off-diagonal */
+  double fixed;      /* piezometric pressure of the fixed ends, as
+                        (fixed a) - (fixed b), Pa; 0 if both ends are free */
+} pls__wlink;
+
+/* Everything a steady solve needs between calls.  The matrix columns are
+ * the topology's columns renumbered by the fill-reducing (AMD, postordered)
+ * permutation, so CHOLMOD's factor is in its natural order and
+ * cholmod_factorize uses the stored upper triangle as it is (no transposed
+ * copies per factorisation).  The analysis is kept while the key (column
+ * count and both end columns of every link, in the topology's numbering)
+ * is unchanged. */
+struct pls_steady_workspace
+{
+  pls_allocator alloc;
+  long analyses;               /* symbolic analyses done                  */
+  int valid;                   /* the key, map, links and factor match    */
+  size_t m, nf;                /* links and columns of the current solve  */
+  size_t cap_m, cap_nf, cap_nodes, cap_elems;
+  /* Key of the analysis (cap_m) and the renumbering (cap_nf): matrix
+   * column of each topology column. */
+  size_t key_m, key_nf;
+  int *key_ca, *key_cb;
+  int *colmap;
+  /* Links and Newton state. */
+  pls__wlink *links;           /* cap_m                                   */
+  double *q, *qt, *d, *dq, *e;   /* cap_m                              */
+  int *col_node;               /* cap_nf: node of each matrix column      */
+  double *demand, *p, *pt, *dp, *res;              /* cap_nf              */
+  /* Per-call scratch of the driver (cap_nodes, cap_elems). */
+  unsigned char *active, *pumped;
+  int *comp, *col;
+  /* CHOLMOD, started on first use. */
+  struct cholmod_common_struct *c;
+  struct cholmod_sparse_struct *A;
+  struct cholmod_factor_struct *L;
+  struct cholmod_dense_struct *B, *X, *Y, *E;
+};
+
+/* Makes room for m links, nf columns, n nodes, ne elements (contents of
+ * grown arrays are lost; a grown key invalidates the analysis).  m = 0:
+ * only the nodes' and elements' scratch. */
+pls_status pls__ws_reserve (pls_steady_workspace *ws, size_t m, size_t nf, size_t n,
+                            size_t ne);
+/* Called after ws->links[0..m) hold elem, fixed and the topology's columns
+ * in ca, cb (ws->m, ws->nf set): compares with the key, redoes the
+ * analysis if it differs, and leaves ca, cb, pa, pb, pab in matrix terms.
+ * *t_analyse: seconds spent (0 when reused). */
+pls_status pls__ws_prepare (pls_steady_workspace *ws, double *t_analyse, pls_error *err);
+/* Newton iterations on a prepared workspace (q, p hold the start). */
+pls_status pls__newton_ws (pls_steady_workspace *ws, const pls_network *net, double air,
+                           const pls_steady_options *o, double pscale, double fscale,
+                           pls_steady_result *r, pls_error *err);

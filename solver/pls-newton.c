@@ -10,8 +10,12 @@
  * B D^-1 B^T (D = diag dh/dQ): a weighted graph Laplacian with the fixed
  * nodes removed, symmetric positive definite because every dh/dQ > 0 and
  * the topology pass keeps only parts that touch a fixed pressure.  CHOLMOD
- * analyses its pattern once per solve (the active set is fixed for the
- * call) and factors it numerically at every iteration.
+ * factors it numerically at every iteration; its symbolic analysis is done
+ * once per pattern and kept in a pls_steady_workspace (pls-workspace.c).
+ *
+ * Two drivers share the method: pls__newton on a pls_work (analysis per
+ * call; kept for callers of that interface), and pls__newton_ws on a
+ * workspace, which the steady solve uses.
  *
  * Globalisation: the first step is the plain GGA step (it does not depend
  * on the starting pressures); later steps are cut back by halving until
@@ -447,3 +451,236 @@ out:
   return st;
 }
 
+
+/* ---- the workspace's Newton core ----------------------------------------
+ *
+ * The same iteration as pls__newton, on a pls_steady_workspace (matrix in
+ * the natural order of its factor, see pls-workspace.c).  One pass over the
+ * links per trial point does what took five there: the Newton flow step
+ * (on the first trial of an iteration), the trial flow, the element law,
+ * the energy residual, the mass balance and the next iteration's matrix
+ * and right side.  The last trial of a line search is always the accepted
+ * point, so what it assembled is what the next iteration factors.  At 1e5
+ * applicators the link data no longer fit in the cache, so passes over
+ * memory, not arithmetic, set the time. */
+
+/* Trial point q + alpha dq, p + alpha dp into qt, pt; slopes into d,
+ * energy residuals into e, nodal imbalance into res, and the system of the
+ * next Newton step at that point into A->x (Laplacian of 1/d) and B
+ * (B D^-1 e - r).  With make_dq the flow step dq = (dp_a - dp_b - e) / d
+ * is formed first from the accepted point's e, d, which the first trial of
+ * an iteration then overwrites in place: later trials of the line search
+ * need only dq, and the last trial is the accepted point.  *se: sum of
+ * (we e)^2; *worst: largest |e| / d. */
+static pls_status
+pls_ws_trial (pls_steady_workspace *ws, const pls_network *net, double air, double alpha,
+              int make_dq, double we, double *se, double *worst, pls_error *err)
+{
+  const pls__wlink *links = ws->links;
+  const double *q = ws->q, *p = ws->p, *dp = ws->dp;
+  double *qt = ws->qt, *pt = ws->pt, *d = ws->d, *e = ws->e;
+  double *dq = ws->dq, *res = ws->res, sum = 0.0, big = 0.0, *ax = NULL, *b = NULL;
+  size_t k, i, nf = ws->nf;
+
+  for (i = 0; i < nf; i++)
+    pt[i] = p[i] + alpha * dp[i];
+  memcpy (res, ws->demand, nf * sizeof *res);
+  if (nf > 0)
+    {
+      ax = ws->A->x;
+      b = ws->B->x;
+      memset (ax, 0, (size_t) ((const int *) ws->A->p)[nf] * sizeof *ax);
+      for (i = 0; i < nf; i++)
+        b[i] = -ws->demand[i];
+    }
+  for (k = 0; k < ws->m; k++)
+    {
+      const pls__wlink *l = &links[k];
+      double qk, pa, pb, ek, inv;
+      pls_drop dr;
+
+      if (make_dq)
+        {
+          double da = l->ca >= 0 ? dp[l->ca] : 0.0, db = l->cb >= 0 ? dp[l->cb] : 0.0;
+
+          dq[k] = (da - db - e[k]) / d[k];
+        }
+      qk = q[k] + alpha * dq[k];
+      qt[k] = qk;
+      pls__element_drop (net, &net->elements[l->elem], air, qk, &dr);
+      if (!isfinite (dr.h) || !isfinite (dr.dh_dq) || !(dr.dh_dq > 0.0))
+        {
+          char label[96];
+
+          pls__element_label (net, l->elem, label, sizeof label);
+          return pls__error (err, PLS_ERR_INVALID, l->elem, -1,
+                             "%s: its law gave drop %g Pa, slope %g at flow %g m^3/s "
+                             "(needs finite values and a positive slope)",
+                             label, dr.h, dr.dh_dq, qk);
+        }
+      d[k] = dr.dh_dq;
+      /* e = h - (P_a - P_b): a fixed end's piezometric pressure is in
+       * l->fixed (signed), a free end's in pt. */
+      pa = l->ca >= 0 ? pt[l->ca] : 0.0;
+      pb = l->cb >= 0 ? pt[l->cb] : 0.0;
+      ek = dr.h - (pa - pb + l->fixed);
+      e[k] = ek;
+      sum += (we * ek) * (we * ek);
+      if (fabs (ek) > big * dr.dh_dq)
+        big = fabs (ek) / dr.dh_dq;
+      inv = 1.0 / dr.dh_dq;
+      if (l->ca >= 0)
+        {
+          res[l->ca] += qk;
+          ax[l->pa] += inv;
+          b[l->ca] += ek * inv - qk;
+        }
+      if (l->cb >= 0)
+        {
+          res[l->cb] -= qk;
+          ax[l->pb] += inv;
+          b[l->cb] -= ek * inv - qk;
+        }
+      if (l->pab >= 0)
+        ax[l->pab] -= inv;
+    }
+  *se = sum;
+  *worst = big;
+  return PLS_OK;
+}
+
+/* Merit of the trial point: se + sum (wr res)^2; *flow_res: the larger of
+ * the energy figure and the largest imbalance. */
+static double
+pls_ws_merit (const pls_steady_workspace *ws, double se, double worst, double wr,
+              double *flow_res)
+{
+  double sum = se;
+  size_t i;
+
+  for (i = 0; i < ws->nf; i++)
+    {
+      double ri = ws->res[i];
+
+      sum += (wr * ri) * (wr * ri);
+      if (fabs (ri) > worst)
+        worst = fabs (ri);
+    }
+  *flow_res = worst;
+  return sum;
+}
+
+static void
+pls_ws_swap (double **a, double **b)
+{
+  double *t = *a;
+
+  *a = *b;
+  *b = t;
+}
+
+/* Accept the trial point. */
+static void
+pls_ws_accept (pls_steady_workspace *ws)
+{
+  pls_ws_swap (&ws->q, &ws->qt);
+  pls_ws_swap (&ws->p, &ws->pt);
+}
+
+pls_status
+pls__newton_ws (pls_steady_workspace *ws, const pls_network *net, double air,
+                const pls_steady_options *o, double pscale, double fscale,
+                pls_steady_result *r, pls_error *err)
+{
+  cholmod_common *c = ws->c;
+  const pls_allocator *prev = pls__cholmod_enter (&ws->alloc);
+  pls_status st = PLS_OK;
+  double we = 1.0 / pscale, wr = 1.0 / fscale, merit, se = 0.0, worst = 0.0;
+  double flow_res = 0.0;
+  size_t m = ws->m, nf = ws->nf, k, i;
+  int it;
+
+  /* The starting point: alpha = 0 with dq = 0 leaves q and p as they are
+   * and evaluates the laws (and the first system) there. */
+  memset (ws->dq, 0, m * sizeof *ws->dq);
+  memset (ws->dp, 0, nf * sizeof *ws->dp);
+  st = pls_ws_trial (ws, net, air, 0.0, 0, we, &se, &worst, err);
+  if (st != PLS_OK)
+    goto out;
+  pls_ws_accept (ws);
+  merit = pls_ws_merit (ws, se, worst, wr, &flow_res);
+
+  for (it = 1; it <= o->max_iterations; it++)
+    {
+      double alpha = 1.0, dpmax = 0.0, trial = 0.0;
+      int cuts;
+
+      /* The system assembled at the accepted point: factor and solve. */
+      if (nf > 0)
+        {
+          if (!cholmod_factorize (ws->A, ws->L, c) || c->status < CHOLMOD_OK)
+            {
+              st = pls_cholmod_status (c, err, "factorisation");
+              goto out;
+            }
+          if (ws->L->minor < ws->L->n)
+            {
+              int node = ws->col_node[ws->L->minor];
+
+              st = pls__error (err, PLS_ERR_LINALG, -1, node,
+                               "the nodal matrix lost positive definiteness near node %d",
+                               node);
+              goto out;
+            }
+          if (!cholmod_solve2 (CHOLMOD_A, ws->L, ws->B, NULL, &ws->X, NULL, &ws->Y, &ws->E,
+                               c))
+            {
+              st = pls_cholmod_status (c, err, "solve");
+              goto out;
+            }
+          memcpy (ws->dp, ws->X->x, nf * sizeof *ws->dp);
+        }
+
+      for (cuts = 0;; cuts++)
+        {
+          st = pls_ws_trial (ws, net, air, alpha, cuts == 0, we, &se, &worst, err);
+          if (st != PLS_OK)
+            goto out;
+          trial = pls_ws_merit (ws, se, worst, wr, &flow_res);
+          if (it == 1 || trial <= (1.0 - 1e-4 * alpha) * merit || cuts >= 30)
+            break;
+          alpha *= 0.5;
+        }
+      for (i = 0; i < nf; i++)
+        if (fabs (alpha * ws->dp[i]) > dpmax)
+          dpmax = fabs (alpha * ws->dp[i]);
+      pls_ws_accept (ws);
+      if (it == 1)
+        {
+          /* The flow scale of the merit: now that the first GGA step has
+           * put flows where the laws want them, use their size. */
+          double qmax = 0.0;
+
+          for (k = 0; k < m; k++)
+            if (fabs (ws->q[k]) > qmax)
+              qmax = fabs (ws->q[k]);
+          if (qmax > fscale)
+            fscale = qmax;
+          wr = 1.0 / fscale;
+          trial = pls_ws_merit (ws, se, worst, wr, &flow_res);
+        }
+      merit = trial;
+      r->iterations = it;
+      r->pressure_change = dpmax;
+      r->flow_residual = flow_res;
+      if (dpmax <= o->pressure_tolerance && flow_res <= o->flow_tolerance)
+        {
+          r->converged = 1;
+          break;
+        }
+    }
+
+out:
+  pls__cholmod_leave (prev);
+  return st;
+}

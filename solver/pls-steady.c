@@ -1,7 +1,9 @@
 /* SPDX-License-Identifier: GPL-3.0-or-later
  *
  * pls-steady.c: the steady solve's driver: options, topology, the links
- * of the solved parts, results.  The iterations are in pls-newton.c.
+ * of the solved parts, results.  The iterations are in pls-newton.c, the
+ * reusable workspace (analysis, matrix, work arrays) in pls-workspace.c;
+ * pls_solve_steady is pls_solve_steady_with on a workspace of its own.
  */
 
 #include "config.h"
@@ -170,27 +172,61 @@ pls_fill_details (const pls_network *net, const pls_steady_options *o, pls_stead
     }
 }
 
+/* Pressure and flow scales of the merit, and whether anything drives the
+ * fluid (a pump, a demand, or two fixed pressures that differ). */
+static pls_status
+pls_scales (const pls_network *net, double *pscale, double *fscale, pls_error *err)
+{
+  double pmin = INFINITY, pmax = -INFINITY, rho_g = net->fluid.density * PLS_GRAVITY;
+  size_t i;
+  int driven = 0;
+
+  *pscale = 1.0;
+  *fscale = 0.0;
+  for (i = 0; i < net->n_nodes; i++)
+    {
+      const pls_node *nd = &net->nodes[i];
+
+      if (nd->fixed)
+        {
+          double pz = nd->pressure + rho_g * nd->elevation;
+
+          pmin = pz < pmin ? pz : pmin;
+          pmax = pz > pmax ? pz : pmax;
+          if (fabs (pz) > *pscale)
+            *pscale = fabs (pz);
+        }
+      if (nd->demand != 0.0)
+        driven = 1;
+      *fscale += fabs (nd->demand);
+    }
+  if (net->n_pumps > 0 || pmax > pmin)
+    driven = 1;
+  if (!driven)
+    return pls__error (err, PLS_ERR_TOPOLOGY, -1, -1,
+                       "the network has no pump: nothing drives the fluid");
+  return PLS_OK;
+}
+
 pls_status
-pls_solve_steady (const pls_network *net, const pls_steady_options *options,
-                  pls_steady_result **out, pls_error *err)
+pls_solve_steady_with (pls_steady_workspace *ws, const pls_network *net,
+                       const pls_steady_options *options, pls_steady_result **out,
+                       pls_error *err)
 {
   pls_steady_options defaults;
   const pls_steady_options *o = options;
-  const pls_allocator *a;
   pls_steady_result *r = NULL;
-  pls_work w;
-  unsigned char *active = NULL, *pumped = NULL;
-  int *comp = NULL, *col = NULL;
-  double rho_g, pscale = 1.0, fscale = 0.0, t_analyse = 0.0, t0 = pls__now ();
+  double rho_g, pscale, fscale, t_analyse = 0.0, t0 = pls__now ();
   pls_status st;
-  size_t i, k;
-  int driven = 0;
+  size_t i, k, m = 0, nf = 0;
+  int *col;
 
-  memset (&w, 0, sizeof w);
   pls__error_clear (err);
   if (out == NULL)
     return pls__error (err, PLS_ERR_INVALID, -1, -1, "no place given for the result");
   *out = NULL;
+  if (ws == NULL)
+    return pls__error (err, PLS_ERR_INVALID, -1, -1, "no workspace given");
   if (net == NULL)
     return pls__error (err, PLS_ERR_INVALID, -1, -1, "no network given");
   if (o == NULL)
@@ -204,127 +240,85 @@ pls_solve_steady (const pls_network *net, const pls_steady_options *options,
   if (net->n_nodes == 0 || net->n_elements == 0)
     return pls__error (err, PLS_ERR_TOPOLOGY, -1, -1,
                        "the network is empty: it needs nodes and parts");
-  /* Something must drive the fluid: a pump, a demand, or two fixed
-   * pressures that differ. */
-  {
-    double pmin = INFINITY, pmax = -INFINITY;
+  st = pls_scales (net, &pscale, &fscale, err);
+  if (st != PLS_OK)
+    return st;
+  rho_g = net->fluid.density * PLS_GRAVITY;
 
-    rho_g = net->fluid.density * PLS_GRAVITY;
-    for (i = 0; i < net->n_nodes; i++)
-      {
-        const pls_node *nd = &net->nodes[i];
-
-        if (nd->fixed)
-          {
-            double pz = nd->pressure + rho_g * nd->elevation;
-
-            pmin = pz < pmin ? pz : pmin;
-            pmax = pz > pmax ? pz : pmax;
-            if (fabs (pz) > pscale)
-              pscale = fabs (pz);
-          }
-        if (nd->demand != 0.0)
-          driven = 1;
-        fscale += fabs (nd->demand);
-      }
-    if (net->n_pumps > 0 || pmax > pmin)
-      driven = 1;
-    if (!driven)
-      return pls__error (err, PLS_ERR_TOPOLOGY, -1, -1,
-                         "the network has no pump: nothing drives the fluid");
-  }
-
-  a = &net->alloc;
-  w.net = net;
-  w.alloc = a;
-  w.air = o->air_pressure;
   r = pls_result_new (net);
-  active = pls__calloc (a, net->n_elements, 1);
-  pumped = pls__calloc (a, net->n_nodes, 1);
-  comp = pls__malloc (a, net->n_nodes * sizeof *comp);
-  col = pls__malloc (a, net->n_nodes * sizeof *col);
-  if (!r || !active || !pumped || !comp || !col)
+  if (r == NULL)
     goto nomem;
-
-  st = pls__active_elements (net, o, active, err);
+  /* Scratch for the topology first (its size is known), links after. */
+  st = pls__ws_reserve (ws, 0, 0, net->n_nodes, net->n_elements);
+  if (st != PLS_OK)
+    goto nomem;
+  col = ws->col;
+  st = pls__active_elements (net, o, ws->active, err);
   if (st != PLS_OK)
     goto out;
-  st = pls__topology (net, o, active, r->node_solved, comp, pumped, &r->findings);
+  st = pls__topology (net, o, ws->active, r->node_solved, ws->comp, ws->pumped,
+                      &r->findings);
   if (st != PLS_OK)
     goto nomem;
 
-  /* Columns of the solved free nodes; links of the solved parts. */
+  /* Columns of the solved free nodes (the topology's numbering); links of
+   * the solved parts. */
   for (i = 0; i < net->n_nodes; i++)
-    col[i] = (!net->nodes[i].fixed && r->node_solved[i]) ? (int) w.nf++ : -1;
+    col[i] = (!net->nodes[i].fixed && r->node_solved[i]) ? (int) nf++ : -1;
   for (k = 0; k < net->n_elements; k++)
     {
       const pls_element *e = &net->elements[k];
 
       r->elem_solved[k] = r->node_solved[e->a] && (e->b < 0 || r->node_solved[e->b]);
-      if (active[k] && r->elem_solved[k])
+      if (ws->active[k] && r->elem_solved[k])
         {
           r->elem_active[k] = 1;
-          w.m++;
+          m++;
         }
     }
-  if (w.m == 0)
+  if (m == 0)
     {
       st = pls__error (err, PLS_ERR_TOPOLOGY, -1, -1, "%s",
                        r->findings.count > 0 ? r->findings.items[0].message
                        : "nothing is left to solve");
       goto out;
     }
-  w.links = pls__malloc (a, w.m * sizeof *w.links);
-  w.col_node = pls__malloc (a, (w.nf + 1) * sizeof *w.col_node);
-  w.demand = pls__calloc (a, w.nf + 1, sizeof *w.demand);
-  w.q = pls__calloc (a, w.m, sizeof (double));
-  w.qt = pls__calloc (a, w.m, sizeof (double));
-  w.h = pls__calloc (a, w.m, sizeof (double));
-  w.d = pls__calloc (a, w.m, sizeof (double));
-  w.ht = pls__calloc (a, w.m, sizeof (double));
-  w.dt = pls__calloc (a, w.m, sizeof (double));
-  w.dq = pls__calloc (a, w.m, sizeof (double));
-  w.p = pls__calloc (a, w.nf + 1, sizeof (double));
-  w.pt = pls__calloc (a, w.nf + 1, sizeof (double));
-  w.dp = pls__calloc (a, w.nf + 1, sizeof (double));
-  w.res = pls__calloc (a, w.nf + 1, sizeof (double));
-  if (!w.links || !w.col_node || !w.demand || !w.q || !w.qt || !w.h || !w.d || !w.ht
-      || !w.dt || !w.dq || !w.p || !w.pt || !w.dp || !w.res)
+  st = pls__ws_reserve (ws, m, nf, net->n_nodes, net->n_elements);
+  if (st != PLS_OK)
     goto nomem;
-  for (i = 0; i < net->n_nodes; i++)
-    if (col[i] >= 0)
-      {
-        w.col_node[col[i]] = (int) i;
-        w.demand[col[i]] = net->nodes[i].demand;
-      }
+  ws->m = m;
+  ws->nf = nf;
   {
     size_t j = 0;
 
+    memset (ws->q, 0, m * sizeof *ws->q);
     for (k = 0; k < net->n_elements; k++)
       {
         const pls_element *e = &net->elements[k];
-        pls_link *l;
+        pls__wlink *l;
+        double fa, fb;
 
         if (!r->elem_active[k])
           continue;
-        l = &w.links[j];
+        l = &ws->links[j];
         l->elem = (int) k;
         l->ca = col[e->a];
-        l->fa = net->nodes[e->a].pressure + rho_g * net->nodes[e->a].elevation;
+        fa = net->nodes[e->a].pressure + rho_g * net->nodes[e->a].elevation;
         if (e->b >= 0)
           {
             l->cb = col[e->b];
-            l->fb = net->nodes[e->b].pressure + rho_g * net->nodes[e->b].elevation;
+            fb = net->nodes[e->b].pressure + rho_g * net->nodes[e->b].elevation;
           }
         else
           {
             /* Applicator: the atmosphere (0 gauge) at its node's height. */
             l->cb = -1;
-            l->fb = rho_g * net->nodes[e->a].elevation;
+            fb = rho_g * net->nodes[e->a].elevation;
           }
+        l->fixed = (l->ca < 0 ? fa : 0.0) - (l->cb < 0 ? fb : 0.0);
         if (e->kind == PLS_ELEMENT_CUSTOM)
           {
-            w.q[j] = e->u.custom.q0;
+            ws->q[j] = e->u.custom.q0;
             fscale += fabs (e->u.custom.q0);
           }
         if (e->kind == PLS_ELEMENT_PUMP)
@@ -341,10 +335,21 @@ pls_solve_steady (const pls_network *net, const pls_steady_options *options,
   if (!(fscale > 0.0))
     fscale = 1e-6;   /* replaced by the first step's flows */
 
-  st = pls__pattern (&w);
+  st = pls__ws_prepare (ws, &t_analyse, err);
   if (st != PLS_OK)
-    goto nomem;
-  st = pls__newton (&w, o, pscale, fscale, r, &t_analyse, err);
+    goto out;
+  /* Matrix columns from here on. */
+  for (i = 0; i < net->n_nodes; i++)
+    if (col[i] >= 0)
+      {
+        int c = ws->colmap[col[i]];
+
+        col[i] = c;
+        ws->col_node[c] = (int) i;
+        ws->demand[c] = net->nodes[i].demand;
+      }
+  memset (ws->p, 0, nf * sizeof *ws->p);
+  st = pls__newton_ws (ws, net, o->air_pressure, o, pscale, fscale, r, err);
   if (st != PLS_OK)
     goto out;
 
@@ -356,13 +361,13 @@ pls_solve_steady (const pls_network *net, const pls_steady_options *options,
       if (nd->fixed)
         r->pressure[i] = nd->pressure;
       else if (col[i] >= 0)
-        r->pressure[i] = w.p[col[i]] - rho_g * nd->elevation;
+        r->pressure[i] = ws->p[col[i]] - rho_g * nd->elevation;
     }
-  for (k = 0; k < w.m; k++)
-    r->flow[w.links[k].elem] = w.q[k];
+  for (k = 0; k < m; k++)
+    r->flow[ws->links[k].elem] = ws->q[k];
   pls_fill_details (net, o, r);
   r->t_analyse = t_analyse;
-  st = pls__design_checks (net, o, r, comp);
+  st = pls__design_checks (net, o, r, ws->comp);
   if (st != PLS_OK)
     goto nomem;
   r->t_total = pls__now () - t0;
@@ -384,11 +389,29 @@ pls_solve_steady (const pls_network *net, const pls_steady_options *options,
 nomem:
   st = pls__error (err, PLS_ERR_NOMEM, -1, -1, "out of memory in the steady solve");
 out:
-  pls__work_free (&w);
-  pls__free (a, active);
-  pls__free (a, pumped);
-  pls__free (a, comp);
-  pls__free (a, col);
   pls_steady_result_free (r);
+  return st;
+}
+
+pls_status
+pls_solve_steady (const pls_network *net, const pls_steady_options *options,
+                  pls_steady_result **out, pls_error *err)
+{
+  pls_steady_workspace *ws;
+  pls_status st;
+
+  pls__error_clear (err);
+  if (out == NULL)
+    return pls__error (err, PLS_ERR_INVALID, -1, -1, "no place given for the result");
+  *out = NULL;
+  if (net == NULL)
+    return pls__error (err, PLS_ERR_INVALID, -1, -1, "no network given");
+  /* A workspace for this call only, from the network's allocator: the
+   * same code path as a reused one, so both give identical results. */
+  ws = pls_steady_workspace_new (&net->alloc, err);
+  if (ws == NULL)
+    return PLS_ERR_NOMEM;
+  st = pls_solve_steady_with (ws, net, options, out, err);
+  pls_steady_workspace_free (ws);
   return st;
 }

@@ -352,6 +352,38 @@ pls_status pls_solve_steady (const pls_network *net, const pls_steady_options *o
                              pls_steady_result **out, pls_error *err);
 void pls_steady_result_free (pls_steady_result *result);
 
+/* A steady workspace keeps what a solve builds besides its result between
+ * calls: CHOLMOD's common block, the fill-reducing ordering and symbolic
+ * factor of the nodal matrix, the matrix itself and every work array.  A
+ * solve with a workspace redoes the symbolic analysis only when the
+ * pattern of the nodal matrix differs from the last solve's (another set of
+ * active elements or solved nodes: idle and steady-open differ), so
+ * re-solving after a change of parameters, pressures or elevations costs
+ * the numeric work alone.  It holds no pointer to a network: any network
+ * may be solved with it, and a layout compiled anew after an edit still
+ * reuses the analysis when its parts and wiring are unchanged.  Keep one
+ * workspace per kind of solve that is repeated (say one for idle and one
+ * for steady-open).  Results are bit-for-bit those of pls_solve_steady
+ * (which makes a workspace for the one call).  Not thread-safe: one solve
+ * at a time per workspace.
+ * alloc (copied; NULL = libc) serves the workspace and, once
+ * pls_route_cholmod_allocations was called, the CHOLMOD memory it holds;
+ * results and the solve's scratch still come from the network's
+ * allocator.  Returns NULL with err filled (PLS_ERR_NOMEM) on failure. */
+typedef struct pls_steady_workspace pls_steady_workspace;
+
+pls_steady_workspace *pls_steady_workspace_new (const pls_allocator *alloc, pls_error *err);
+/* Frees everything the workspace holds (NULL is fine). */
+void pls_steady_workspace_free (pls_steady_workspace *ws);
+/* Symbolic analyses done with this workspace so far (for tests and
+ * benchmarks: it stays put while the pattern is reused). */
+long pls_steady_workspace_analyses (const pls_steady_workspace *ws);
+/* pls_solve_steady with a workspace (not NULL).  On any failure the
+ * workspace stays valid; the next solve redoes the analysis if needed. */
+pls_status pls_solve_steady_with (pls_steady_workspace *ws, const pls_network *net,
+                                  const pls_steady_options *options,
+                                  pls_steady_result **out, pls_error *err);
+
 /* Newton summary. */
 int pls_steady_result_converged (const pls_steady_result *r);
 int pls_steady_result_iterations (const pls_steady_result *r);
@@ -460,6 +492,183 @@ typedef struct
 size_t pls_steady_finding_count (const pls_steady_result *r);
 /* NULL if index >= count; owned by the result. */
 const pls_finding *pls_steady_finding (const pls_steady_result *r, size_t index);
+
+/* ------------------------------------------------------------------------
+ * Time domain: firing cycle and shutdown
+ *
+ * The network becomes a lumped R-L-C model: lines cut into pi-segments
+ * (inertance rho dx / A, the line's law per segment, half the segment's
+ * compliance at each end; Korteweg's wall for a rigid pipe, the hose's
+ * volumetric expansion figure for a hose), accumulators as polytropic gas
+ * chambers behind a neck, applicators with ramped valves.  It is
+ * integrated by TR-BDF2 with local error control, steps landing on every
+ * valve event, Newton in each stage on the SPD nodal form factored by
+ * CHOLMOD (one symbolic analysis for the whole run).
+ * ------------------------------------------------------------------------ */
+
+typedef struct
+{
+  double air_pressure;       /* Pa gauge at the pumps while the air is on, >= 0 */
+  /* Firing schedule. */
+  double cycle_rate;         /* shots per second, > 0                           */
+  double on_time;            /* s from the start of opening to the start of
+                                closing, > 0 and < 1 / cycle_rate             */
+  double open_ramp;          /* s, > 0 and <= on_time                           */
+  double close_ramp;         /* s, > 0                                          */
+  const double *delays;      /* input, delay_count entries: the firing delay of
+                                each element (s, >= 0; only the applicators'
+                                entries are read), or NULL: all fire at once.
+                                delay + on_time + close_ramp must fit in the
+                                cycle                                          */
+  size_t delay_count;        /* must equal the element count when delays set  */
+  /* Model. */
+  double segments_per_wavelength; /* pi-segments per shortest wavelength, > 0 */
+  int min_segments;          /* per line, >= 1                                  */
+  int max_segments;          /* per line, >= min_segments (the cap)             */
+  /* Integrator (local error per step). */
+  double rtol;               /* relative, > 0                                   */
+  double atol_pressure;      /* Pa, > 0                                         */
+  double atol_flow;          /* m^3/s, > 0                                      */
+  /* Cycle. */
+  double periodic_tolerance; /* stop when the largest cycle-to-cycle change of a
+                                node pressure, over the largest idle pressure,
+                                falls below this, > 0                          */
+  int max_cycles;            /* >= 1                                            */
+  int samples;               /* time-series points over the cycle, >= 2         */
+  double uniformity_tolerance; /* allowed relative deviation of a shot, > 0     */
+  double recovery_fraction;  /* "recovered": back within this fraction of the
+                                idle pressure, > 0                             */
+  /* Shutdown. */
+  double safe_pressure;      /* Pa gauge, > 0                                   */
+  double shutdown_time;      /* s, > 0: how long to follow the decay at most    */
+} pls_transient_options;
+
+/* Defaults: 6 bar air; 2 shots/s, 50 ms on, 2 ms ramps, no delays; 13
+ * segments per wavelength, 1 to 32 segments a line; rtol 1e-3, atol 10 Pa
+ * and 1e-9 m^3/s; periodic tolerance 1e-4, 200 cycles, 200 samples,
+ * uniformity 0.02, recovery 0.01; safe pressure 1 bar (common practice, no
+ * source), 600 s of shutdown. */
+void pls_transient_options_init (pls_transient_options *options);
+
+/* Work done by an integration (for benchmarks and tuning). */
+typedef struct
+{
+  long steps;                /* accepted steps                                   */
+  long rejected;             /* rejected steps                                   */
+  long newton_iterations;
+  long factorisations;       /* numeric Cholesky factorisations                  */
+  double wall_seconds;
+} pls_transient_stats;
+
+typedef struct pls_cycle_result pls_cycle_result;
+
+/* Runs the firing cycle from the idle state (air on, applicators shut)
+ * until it is periodic, then reports the last cycle.  PLS_OK with *out
+ * set (also when the cycle did not become periodic within max_cycles:
+ * pls_cycle_result_periodic says so, and a finding too); another status
+ * with *out = NULL and err naming the part or option at fault. */
+pls_status pls_solve_cycle (const pls_network *net, const pls_transient_options *options,
+                            pls_cycle_result **out, pls_error *err);
+void pls_cycle_result_free (pls_cycle_result *r);
+
+int pls_cycle_result_cycles (const pls_cycle_result *r);     /* cycles run       */
+int pls_cycle_result_periodic (const pls_cycle_result *r);   /* 1 if converged   */
+double pls_cycle_result_change (const pls_cycle_result *r);  /* last relative
+                                                                change            */
+void pls_cycle_result_stats (const pls_cycle_result *r, pls_transient_stats *out);
+/* Pi-segments chosen for a line element (0 for other elements). */
+int pls_cycle_result_segments (const pls_cycle_result *r, int element);
+
+/* Per node over the last cycle, Pa gauge (0 for out-of-range indices). */
+double pls_cycle_node_min (const pls_cycle_result *r, int node);
+double pls_cycle_node_max (const pls_cycle_result *r, int node);
+double pls_cycle_node_mean (const pls_cycle_result *r, int node);
+double pls_cycle_node_idle (const pls_cycle_result *r, int node);
+/* Time after the end of the last shot until the node stays within the
+ * recovery fraction of its idle pressure (s); -1 if it does not recover
+ * before the cycle ends. */
+double pls_cycle_node_recovery (const pls_cycle_result *r, int node);
+
+/* Downsampled time series of the last cycle: sample i at time
+ * i * period / (samples - 1) from the cycle's start. */
+size_t pls_cycle_sample_count (const pls_cycle_result *r);
+double pls_cycle_sample_time (const pls_cycle_result *r, size_t i);         /* s  */
+double pls_cycle_sample_pressure (const pls_cycle_result *r, int node, size_t i); /* Pa */
+
+/* Applicators: mass per shot (kg) in the last cycle, its relative deviation
+ * from the mean of all applicators, and the mass of the first shot from
+ * idle (a fully recovered line). */
+double pls_cycle_shot_mass (const pls_cycle_result *r, int element);
+double pls_cycle_shot_deviation (const pls_cycle_result *r, int element);
+double pls_cycle_first_shot_mass (const pls_cycle_result *r, int element);
+
+typedef struct
+{
+  double min_pressure, max_pressure;          /* Pa gauge over the cycle      */
+  double min_fluid_volume, max_fluid_volume;  /* m^3 over the cycle           */
+} pls_cycle_accumulator;
+
+typedef struct
+{
+  double volume;             /* delivered over the last cycle, m^3           */
+  double mean_flow, min_flow, max_flow;       /* m^3/s                        */
+} pls_cycle_pump;
+
+pls_status pls_cycle_accumulator_swing (const pls_cycle_result *r, int element,
+                                        pls_cycle_accumulator *out);
+pls_status pls_cycle_pump_flow (const pls_cycle_result *r, int element, pls_cycle_pump *out);
+
+/* Volume balance of the last cycle (m^3): delivered by all pumps, shot by
+ * all applicators, and the change of the volume stored in the model. */
+void pls_cycle_result_volumes (const pls_cycle_result *r, double *pumped, double *shot,
+                               double *stored_change);
+
+/* Findings: "no-recovery" (a node not back within the recovery fraction
+ * before the next shot, warning), "shot-uniformity" (a shot outside the
+ * uniformity tolerance of the mean, warning), "not-periodic" (max_cycles
+ * reached, warning). */
+size_t pls_cycle_finding_count (const pls_cycle_result *r);
+const pls_finding *pls_cycle_finding (const pls_cycle_result *r, size_t index);
+
+/* Highest cycle rate (shots/s) in [rate_low, the highest the schedule
+ * allows] at which every shot stays within the uniformity tolerance of the
+ * mean and of the first shot from idle, by bisection to 1 %.  *rate = 0 if
+ * even rate_low fails.  stats (may be NULL) sums the work. */
+pls_status pls_cycle_max_rate (const pls_network *net, const pls_transient_options *options,
+                               double rate_low, double *rate, pls_transient_stats *stats,
+                               pls_error *err);
+
+typedef struct pls_shutdown_result pls_shutdown_result;
+
+/* Shutdown from idle: at t = 0 the air goes off (pumps stop, dump valves
+ * open) with every applicator shut; follows the decay for at most
+ * shutdown_time.  PLS_OK with *out set; else *out = NULL. */
+pls_status pls_solve_shutdown (const pls_network *net, const pls_transient_options *options,
+                               pls_shutdown_result **out, pls_error *err);
+void pls_shutdown_result_free (pls_shutdown_result *r);
+
+void pls_shutdown_result_stats (const pls_shutdown_result *r, pls_transient_stats *out);
+/* Time until every node not trapped is below the safe pressure (s); -1 if
+ * that did not happen within shutdown_time. */
+double pls_shutdown_safe_time (const pls_shutdown_result *r);
+/* Per node: the time its pressure fell below the safe pressure for good
+ * (s; 0 if it never was above, -1 if not within the run) and whether it is
+ * trapped (no path to a drain, tank or open valve once the air is off). */
+double pls_shutdown_node_safe_time (const pls_shutdown_result *r, int node);
+int pls_shutdown_node_trapped (const pls_shutdown_result *r, int node);
+/* Energy stored at the start (J): gas in the accumulators (above the
+ * precharge state) and the compressed fluid and walls (1/2 C p^2). */
+double pls_shutdown_gas_energy (const pls_shutdown_result *r);
+double pls_shutdown_fluid_energy (const pls_shutdown_result *r);
+/* Decay series: sample i at pls_shutdown_sample_time. */
+size_t pls_shutdown_sample_count (const pls_shutdown_result *r);
+double pls_shutdown_sample_time (const pls_shutdown_result *r, size_t i);
+double pls_shutdown_sample_pressure (const pls_shutdown_result *r, int node, size_t i);
+/* Findings: "trapped-pressure" (error: a volume that stays above the safe
+ * pressure behind a closed valve or check valve), "shutdown-slow"
+ * (warning: not safe within shutdown_time). */
+size_t pls_shutdown_finding_count (const pls_shutdown_result *r);
+const pls_finding *pls_shutdown_finding (const pls_shutdown_result *r, size_t index);
 
 #ifdef __cplusplus
 }

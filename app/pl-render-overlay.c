@@ -1,0 +1,488 @@
+/* SPDX-License-Identifier: GPL-3.0-or-later
+ *
+ * pl-render-overlay.c: what the results add to the drawing -- pressures
+ * (steady, cycle statistics, or the instant of a replay), ramp colours,
+ * flow marks, a gauge's reading, an applicator's dose bar, labels at
+ * chosen ports -- and the legend and the stale mark.
+ *
+ * Only called with results that match the document (pl-render.h), except
+ * the stale badge and the legend, which draw no figure from stale results.
+ */
+#include "config.h"
+
+#include "pl-render-private.h"
+
+#include <glib/gi18n.h>
+#include <math.h>
+
+/* Pressure at a port at the replay instant: linear interpolation in the
+ * last cycle's evenly spaced samples (pressline-solver.h: sample i at
+ * i * period / (samples - 1)); the time wraps round the cycle. */
+static gboolean
+replay_pressure (PlRenderCtx *ctx, const char *part_id, const char *port_key, double *out)
+{
+  const pls_cycle_result *cy = pl_results_get_cycle (ctx->results);
+  size_t n;
+  int node;
+  double period, t, idx, f, p0, p1;
+  size_t i;
+
+  if (cy == NULL || (n = pls_cycle_sample_count (cy)) < 2)
+    return FALSE;
+  node = pl_compiled_get_port_node (pl_results_get_compiled (ctx->results), part_id, port_key);
+  if (node < 0)
+    return FALSE;
+  period = pls_cycle_sample_time (cy, n - 1);
+  if (!(isfinite (period) && period > 0.0))
+    return FALSE;
+  t = fmod (ctx->opts->replay_time, period);
+  if (t < 0.0)
+    t += period;
+  idx = t / period * (double) (n - 1);
+  i = MIN ((size_t) idx, n - 2);
+  f = idx - (double) i;
+  p0 = pls_cycle_sample_pressure (cy, node, i);
+  p1 = pls_cycle_sample_pressure (cy, node, i + 1);
+  if (!(isfinite (p0) && isfinite (p1)))
+    return FALSE;
+  *out = p0 + f * (p1 - p0);
+  return TRUE;
+}
+
+gboolean
+pl_render_port_pressure (PlRenderCtx *ctx, const char *part_id, const char *port_key,
+                         double *out)
+{
+  double p;
+
+  if (ctx->results == NULL)
+    return FALSE;
+  if (isfinite (ctx->opts->replay_time) && replay_pressure (ctx, part_id, port_key, out))
+    return TRUE;
+  if (!pl_results_get_port_pressure (ctx->results, part_id, port_key,
+                                     ctx->opts->pressure_kind, &p) || !isfinite (p))
+    return FALSE;
+  *out = p;
+  return TRUE;
+}
+
+void
+pl_render_overlay_prepare (PlRenderCtx *ctx)
+{
+  const PlRenderOptions *o = ctx->opts;
+  double lo = 0.0, hi = -INFINITY;
+  /* With a replay the ramp spans the whole cycle, so colours do not
+   * rescale as the instant moves. */
+  PlPressureKind kind = isfinite (o->replay_time) && pl_results_get_cycle (ctx->results)
+                        ? PL_PRESSURE_CYCLE_MAX : o->pressure_kind;
+  const PlPart *scenario = pl_document_get_scenario (ctx->doc);
+
+  ctx->uniformity = pl_part_get_number (scenario, "uniformity-tolerance");
+  if (!isfinite (ctx->uniformity))
+    ctx->uniformity = 0.02;
+  for (guint i = 0; i < pl_document_get_n_parts (ctx->doc); i++)
+    {
+      const PlPart *part = pl_document_get_part (ctx->doc, i);
+      const PlPartType *type = pl_part_get_part_type (part);
+
+      for (guint k = 0; k < type->n_ports; k++)
+        {
+          double p;
+
+          if (pl_results_get_port_pressure (ctx->results, pl_part_get_id (part),
+                                            type->ports[k].key, kind, &p) && isfinite (p))
+            {
+              hi = MAX (hi, p);
+              lo = MIN (lo, p);
+            }
+        }
+    }
+  if (isfinite (o->pressure_max) && o->pressure_max > 0.0)
+    hi = o->pressure_max;
+  ctx->have_range = isfinite (hi);
+  /* A layout at rest (all 0 Pa) still gets a legend of 1 bar. */
+  if (ctx->have_range && hi <= lo)
+    hi = lo + 1e5;
+  ctx->p_lo = lo;
+  ctx->p_hi = hi;
+}
+
+gboolean
+pl_render_pressure_range (PlDocument *doc, PlResults *results, const PlRenderOptions *opts,
+                          double *lo, double *hi)
+{
+  PlRenderCtx ctx = { 0 };
+
+  g_return_val_if_fail (doc != NULL && opts != NULL, FALSE);
+  if (results == NULL || opts->results_stale
+      || pl_results_get_revision (results) != pl_document_get_revision (doc))
+    return FALSE;
+  ctx.doc = doc;
+  ctx.results = results;
+  ctx.opts = opts;
+  pl_render_overlay_prepare (&ctx);
+  if (!ctx.have_range)
+    return FALSE;
+  if (lo != NULL)
+    *lo = ctx.p_lo;
+  if (hi != NULL)
+    *hi = ctx.p_hi;
+  return TRUE;
+}
+
+void
+pl_render_pressure_color (PlRenderCtx *ctx, double p, PlColor *out)
+{
+  double t = ctx->have_range ? (p - ctx->p_lo) / (ctx->p_hi - ctx->p_lo) : 0.0;
+
+  pl_palette_ramp (ctx->pal, t, out);
+}
+
+gboolean
+pl_render_port_outflow (PlRenderCtx *ctx, const PlPart *part, const char *port_key,
+                        double *out)
+{
+  const PlPartType *type = pl_part_get_part_type (part);
+  PlSteadyCase c = ctx->opts->pressure_kind == PL_PRESSURE_IDLE ? PL_CASE_IDLE
+                                                                : PL_CASE_STEADY_OPEN;
+  guint index = 0;
+  double q;
+
+  if (ctx->results == NULL || pl_part_type_find_port (type, port_key, &index) == NULL)
+    return FALSE;
+  /* Sign conventions of pl_results_get_flow (pl-results.h). */
+  switch (type->kind)
+    {
+    case PL_PART_PUMP:
+      if (!pl_results_get_flow (ctx->results, pl_part_get_id (part), 0, c, &q))
+        return FALSE;
+      *out = q;                              /* delivered out of "out" */
+      return TRUE;
+    case PL_PART_HOSE:
+    case PL_PART_PIPE:
+    case PL_PART_BALL_VALVE:
+    case PL_PART_DUMP_VALVE:
+      if (!pl_results_get_flow (ctx->results, pl_part_get_id (part), 0, c, &q))
+        return FALSE;
+      *out = index == 0 ? -q : q;            /* port 0 -> port 1 */
+      return TRUE;
+    case PL_PART_TEE:
+      if (!pl_results_get_flow (ctx->results, pl_part_get_id (part), index, c, &q))
+        return FALSE;
+      *out = q;                              /* centre outwards */
+      return TRUE;
+    case PL_PART_APPLICATOR:
+      if (!pl_results_get_flow (ctx->results, pl_part_get_id (part), 0, c, &q))
+        return FALSE;
+      *out = -q;                             /* out of the line, into the nozzle */
+      return TRUE;
+    case PL_PART_ACCUMULATOR:
+    case PL_PART_GAUGE:
+    case PL_PART_DRAIN:
+    case PL_PART_SCENARIO:
+    case PL_PART_TITLE:
+    case PL_N_PART_KINDS:
+    default:
+      return FALSE;
+    }
+}
+
+void
+pl_render_symbol_state (PlRenderCtx *ctx, const PlPart *part, PlSymbolState *s)
+{
+  const PlPartType *type = pl_part_get_part_type (part);
+  double p;
+
+  *s = (PlSymbolState) { .flow = NAN, .gauge_fraction = NAN };
+  if (ctx->results == NULL)
+    return;
+  if (type->n_ports > 0
+      && pl_render_port_pressure (ctx, pl_part_get_id (part), type->ports[0].key, &p))
+    {
+      s->have_a = TRUE;
+      pl_render_pressure_color (ctx, p, &s->color_a);
+      if (type->kind == PL_PART_GAUGE)
+        {
+          double fs = pl_part_get_number (part, "full-scale");
+
+          s->gauge_fraction = fs > 0.0 ? p / fs : NAN;
+        }
+    }
+  if (s->have_a && type->n_ports > 1
+      && pl_render_port_pressure (ctx, pl_part_get_id (part), type->ports[1].key, &p))
+    {
+      s->have_b = TRUE;
+      pl_render_pressure_color (ctx, p, &s->color_b);
+    }
+  if (type->kind == PL_PART_HOSE || type->kind == PL_PART_PIPE
+      || type->kind == PL_PART_BALL_VALVE || type->kind == PL_PART_DUMP_VALVE)
+    {
+      PlSteadyCase c = ctx->opts->pressure_kind == PL_PRESSURE_IDLE ? PL_CASE_IDLE
+                                                                    : PL_CASE_STEADY_OPEN;
+      double q;
+
+      if (pl_results_get_flow (ctx->results, pl_part_get_id (part), 0, c, &q))
+        s->flow = q;
+    }
+}
+
+void
+pl_render_flow_mark_path (PlRenderCtx *ctx, PlPoint p, double dx, double dy, double size)
+{
+  cairo_t *cr = ctx->cr;
+  double nx = -dy, ny = dx, h = 0.5 * size;
+
+  cairo_move_to (cr, p.x + h * dx, p.y + h * dy);
+  cairo_line_to (cr, p.x - h * dx + h * nx, p.y - h * dy + h * ny);
+  cairo_line_to (cr, p.x - 0.4 * h * dx, p.y - 0.4 * h * dy);
+  cairo_line_to (cr, p.x - h * dx - h * nx, p.y - h * dy - h * ny);
+  cairo_close_path (cr);
+}
+
+void
+pl_render_flow_mark_flush (PlRenderCtx *ctx)
+{
+  /* A solid arrowhead with a rim of the sheet colour: it reads on any
+   * ramp colour and on a casing alike. */
+  pl_render_set_color (ctx, &ctx->pal->background);
+  cairo_set_line_width (ctx->cr, pl_render_line_width (ctx, 0.5));
+  cairo_stroke_preserve (ctx->cr);
+  pl_render_set_color (ctx, &ctx->pal->ink);
+  cairo_fill (ctx->cr);
+}
+
+void
+pl_render_flow_mark (PlRenderCtx *ctx, PlPoint p, double dx, double dy, double size)
+{
+  pl_render_flow_mark_path (ctx, p, dx, dy, size);
+  pl_render_flow_mark_flush (ctx);
+}
+
+/* A boxed text with its top left at (x, y); returns its height. */
+static double
+boxed_text (PlRenderCtx *ctx, const char *text, double x, double y, gboolean bold,
+            double *width)
+{
+  double size = pl_render_text_size (ctx, PL_RENDER_VALUE_MM), w, h, pad;
+
+  if (size == 0.0)
+    return 0.0;
+  pl_render_layout_text (ctx, text, size, bold, &w, &h);
+  pad = 0.25 * h;
+  cairo_rectangle (ctx->cr, x, y, w + 2 * pad, h);
+  pl_render_set_color (ctx, &ctx->pal->label_bg);
+  cairo_fill_preserve (ctx->cr);
+  pl_render_set_color (ctx, &ctx->pal->ink);
+  cairo_set_line_width (ctx->cr, pl_render_line_width (ctx, 0.25));
+  cairo_stroke (ctx->cr);
+  pl_render_show_layout (ctx, x + pad, y, &ctx->pal->text);
+  if (width != NULL)
+    *width = w + 2 * pad;
+  return h;
+}
+
+/* The dose bar: the shot's mass against the mean of all applicators, the
+ * mean at two thirds of the bar (so +50 % still fits), the deviation in
+ * figures after it, coloured by the scenario's uniformity tolerance. */
+static double
+dose_bar (PlRenderCtx *ctx, const PlPart *part, double x, double y)
+{
+  const double width = 18.0, height = 3.0, mean_at = 12.0;
+  double mass, dev, size = pl_render_text_size (ctx, PL_RENDER_VALUE_MM), w, h;
+  g_autofree char *text = NULL;
+  const PlColor *color;
+
+  if (!pl_results_get_shot (ctx->results, pl_part_get_id (part), &mass, &dev, NULL)
+      || !isfinite (dev))
+    return 0.0;
+  color = fabs (dev) <= ctx->uniformity ? &ctx->pal->dose_ok : &ctx->pal->dose_bad;
+  cairo_rectangle (ctx->cr, x, y, CLAMP (mean_at * (1.0 + dev), 0.0, width), height);
+  pl_render_set_color (ctx, color);
+  cairo_fill (ctx->cr);
+  cairo_rectangle (ctx->cr, x, y, width, height);
+  pl_render_set_color (ctx, &ctx->pal->ink);
+  cairo_set_line_width (ctx->cr, pl_render_line_width (ctx, 0.25));
+  cairo_stroke (ctx->cr);
+  cairo_move_to (ctx->cr, x + mean_at, y - 0.8);
+  cairo_line_to (ctx->cr, x + mean_at, y + height + 0.8);
+  cairo_set_line_width (ctx->cr, pl_render_line_width (ctx, 0.5));
+  cairo_stroke (ctx->cr);
+  if (size == 0.0)
+    return height;
+  /* Translators: a shot's deviation from the mean of all shots, in %. */
+  text = g_strdup_printf (_("%+.1f %%"), 100.0 * dev);
+  pl_render_layout_text (ctx, text, size, fabs (dev) > ctx->uniformity, &w, &h);
+  pl_render_show_layout (ctx, x + width + 1.0, y + 0.5 * height - 0.5 * h, &ctx->pal->text);
+  return MAX (height, h);
+}
+
+void
+pl_render_part_overlay (PlRenderCtx *ctx, const PlPart *part, const PlRect *label,
+                        PlSide side)
+{
+  const PlPartType *type = pl_part_get_part_type (part);
+  gboolean up = side == PL_SIDE_NORTH;
+  double x = side == PL_SIDE_WEST ? label->x1 - 22.0 : side == PL_SIDE_EAST
+             ? label->x0 : 0.5 * (label->x0 + label->x1) - 11.0;
+  double y = up ? label->y0 - 1.0 : label->y1 + 1.0;
+
+  if (type->kind == PL_PART_GAUGE)
+    {
+      double p, size = pl_render_text_size (ctx, PL_RENDER_VALUE_MM), w, h;
+      g_autofree char *text = NULL;
+
+      if (size == 0.0 || !pl_render_port_pressure (ctx, pl_part_get_id (part), "p", &p))
+        return;
+      text = pl_unit_format (p, PL_QUANTITY_PRESSURE, ctx->opts->units, 3,
+                             PL_UNIT_DECIMAL_FROM_LOCALE);
+      pl_render_layout_text (ctx, text, size, TRUE, &w, &h);
+      boxed_text (ctx, text, 0.5 * (label->x0 + label->x1) - 0.5 * w - 0.25 * h,
+                  up ? y - h : y, TRUE, NULL);
+    }
+  else if (type->kind == PL_PART_APPLICATOR)
+    dose_bar (ctx, part, x, up ? y - 3.0 : y + 0.6);
+}
+
+void
+pl_render_pressure_label (PlRenderCtx *ctx, PlPoint anchor, const char *part_id,
+                          const char *port_key)
+{
+  double p;
+  g_autofree char *text = NULL;
+
+  if (!pl_render_port_pressure (ctx, part_id, port_key, &p))
+    return;
+  text = pl_unit_format (p, PL_QUANTITY_PRESSURE, ctx->opts->units, 3,
+                         PL_UNIT_DECIMAL_FROM_LOCALE);
+  /* A leader from the port to a label up and to the right. */
+  cairo_move_to (ctx->cr, anchor.x, anchor.y);
+  cairo_line_to (ctx->cr, anchor.x + 3.0, anchor.y - 3.0);
+  pl_render_set_color (ctx, &ctx->pal->ink);
+  cairo_set_line_width (ctx->cr, pl_render_line_width (ctx, 0.25));
+  cairo_stroke (ctx->cr);
+  boxed_text (ctx, text, anchor.x + 3.0, anchor.y - 3.0 - 1.2 * PL_RENDER_VALUE_MM, TRUE,
+              NULL);
+}
+
+/* Diagonal stripes over a rectangle: the mark of things out of date. */
+static void
+hatch (cairo_t *cr, double x, double y, double w, double h, double step, double lw)
+{
+  cairo_save (cr);
+  cairo_rectangle (cr, x, y, w, h);
+  cairo_clip (cr);
+  for (double d = -h; d < w; d += step)
+    {
+      cairo_move_to (cr, x + d, y + h);
+      cairo_line_to (cr, x + d + h, y);
+    }
+  cairo_set_line_width (cr, lw);
+  cairo_stroke (cr);
+  cairo_restore (cr);
+}
+
+void
+pl_render_stale_badge (PlRenderCtx *ctx)
+{
+  double size = 12.0 * ctx->px, w, h, x = ctx->clip.x0 + 10.0 * ctx->px;
+  double y = ctx->clip.y0 + 10.0 * ctx->px, pad = 0.5 * size;
+
+  pl_render_layout_text (ctx, _("Results out of date"), size, TRUE, &w, &h);
+  cairo_rectangle (ctx->cr, x, y, w + 2 * pad, h + pad);
+  pl_render_set_color (ctx, &ctx->pal->label_bg);
+  cairo_fill (ctx->cr);
+  pl_render_set_color (ctx, &ctx->pal->stale);
+  hatch (ctx->cr, x, y, w + 2 * pad, h + pad, 0.6 * size, 0.12 * size);
+  cairo_rectangle (ctx->cr, x, y, w + 2 * pad, h + pad);
+  pl_render_set_color (ctx, &ctx->pal->text_dim);
+  cairo_set_line_width (ctx->cr, ctx->px);
+  cairo_stroke (ctx->cr);
+  pl_render_show_layout (ctx, x + pad, y + 0.5 * pad, &ctx->pal->text);
+}
+
+void
+pl_render_legend (cairo_t *cr, double x, double y, double width, double height, double lo,
+                  double hi, const PlUnitPrefs *units, PlRenderStyle style, gboolean stale)
+{
+  const PlPalette *pal = pl_palette_get (style);
+  PangoLayout *layout;
+  PangoFontDescription *font;
+  cairo_pattern_t *ramp;
+  double pad = 0.12 * height, title = 0.24 * height, bar_y, bar_h = 0.26 * height;
+  const PlUnit *unit = pl_unit_get (pl_unit_prefs_get_unit (units, PL_QUANTITY_PRESSURE));
+  g_autofree char *heading = NULL;
+
+  g_return_if_fail (cr != NULL);
+  if (pal == NULL || !(width > 0.0 && height > 0.0))
+    return;
+  cairo_save (cr);
+  layout = pango_cairo_create_layout (cr);
+  pango_context_set_round_glyph_positions (pango_layout_get_context (layout), FALSE);
+  pango_layout_context_changed (layout);
+  font = pango_font_description_from_string ("Sans");
+  cairo_rectangle (cr, x, y, width, height);
+  cairo_set_source_rgba (cr, pal->label_bg.r, pal->label_bg.g, pal->label_bg.b,
+                         pal->label_bg.a);
+  cairo_fill_preserve (cr);
+  cairo_set_source_rgba (cr, pal->text_dim.r, pal->text_dim.g, pal->text_dim.b, 0.6);
+  cairo_set_line_width (cr, 0.02 * height);
+  cairo_stroke (cr);
+
+  /* Translators: title of the colour legend; %s is the pressure unit. */
+  heading = stale ? g_strdup_printf (_("Pressure (%s) — out of date"), unit->symbol)
+                  : g_strdup_printf (_("Pressure (%s)"), unit->symbol);
+  pango_font_description_set_absolute_size (font, title * PANGO_SCALE);
+  pango_font_description_set_weight (font, PANGO_WEIGHT_BOLD);
+  pango_layout_set_font_description (layout, font);
+  pango_layout_set_text (layout, heading, -1);
+  cairo_move_to (cr, x + pad, y + 0.5 * pad);
+  cairo_set_source_rgba (cr, pal->text.r, pal->text.g, pal->text.b, 1.0);
+  pango_cairo_show_layout (cr, layout);
+
+  bar_y = y + 0.5 * pad + 1.25 * title;
+  ramp = cairo_pattern_create_linear (x + pad, 0, x + width - pad, 0);
+  for (int i = 0; i <= 32; i++)
+    {
+      PlColor c;
+
+      pl_palette_ramp (pal, i / 32.0, &c);
+      cairo_pattern_add_color_stop_rgba (ramp, i / 32.0, c.r, c.g, c.b, stale ? 0.3 : 1.0);
+    }
+  cairo_rectangle (cr, x + pad, bar_y, width - 2 * pad, bar_h);
+  cairo_set_source (cr, ramp);
+  cairo_fill_preserve (cr);
+  cairo_pattern_destroy (ramp);
+  cairo_set_source_rgba (cr, pal->ink.r, pal->ink.g, pal->ink.b, 1.0);
+  cairo_set_line_width (cr, 0.02 * height);
+  cairo_stroke (cr);
+  if (stale)
+    {
+      cairo_set_source_rgba (cr, pal->stale.r, pal->stale.g, pal->stale.b, pal->stale.a);
+      hatch (cr, x + pad, bar_y, width - 2 * pad, bar_h, 0.2 * height, 0.04 * height);
+    }
+  else if (hi > lo)
+    {
+      /* Ends and middle of the scale, in the user's pressure unit. */
+      pango_font_description_set_absolute_size (font, 0.22 * height * PANGO_SCALE);
+      pango_font_description_set_weight (font, PANGO_WEIGHT_NORMAL);
+      pango_layout_set_font_description (layout, font);
+      for (int i = 0; i <= 2; i++)
+        {
+          double v = lo + (hi - lo) * i / 2.0, tx = x + pad + (width - 2 * pad) * i / 2.0;
+          g_autofree char *text = pl_unit_format_number (v, PL_QUANTITY_PRESSURE, units, 3,
+                                                         PL_UNIT_DECIMAL_FROM_LOCALE);
+          PangoRectangle ext;
+
+          pango_layout_set_text (layout, text, -1);
+          pango_layout_get_extents (layout, NULL, &ext);
+          tx -= i == 0 ? 0 : i == 2 ? (double) ext.width / PANGO_SCALE
+                                    : 0.5 * ext.width / PANGO_SCALE;
+          cairo_move_to (cr, tx, bar_y + bar_h + 0.04 * height);
+          cairo_set_source_rgba (cr, pal->text.r, pal->text.g, pal->text.b, 1.0);
+          pango_cairo_show_layout (cr, layout);
+        }
+    }
+  pango_font_description_free (font);
+  g_object_unref (layout);
+  cairo_restore (cr);
+}

@@ -1,0 +1,979 @@
+/* SPDX-License-Identifier: GPL-3.0-or-later
+ *
+ * pls-cycle.c: the firing cycle run to a periodic steady state, its
+ * results, and the search for the highest cycle rate that keeps the shots
+ * uniform.  Also the pieces the shutdown shares: options, the idle start.
+ *
+ * Periodic steady state by plain repetition ("brute-force" shooting):
+ * the schedule is integrated cycle after cycle from the idle state until
+ * the largest change of a model node pressure between the starts of two
+ * successive cycles, relative to the largest idle pressure, falls below
+ * the tolerance.  The last cycle is reported.
+ */
+
+#include "config.h"
+
+#include <math.h>
+#include <string.h>
+
+#include "pls-transient-private.h"
+
+#define PLS_GAMMA (2.0 - 1.41421356237309504880)
+
+struct pls_cycle_result
+{
+  pls_allocator alloc;
+  size_t n_nodes, n_elements;
+  int cycles, periodic;
+  double change, period;
+  pls_transient_stats stats;
+  int *segments;                  /* n_elements                               */
+  double *pmin, *pmax, *pmean, *pidle, *recovery; /* n_nodes                  */
+  size_t samples;
+  double *series;                 /* n_nodes x samples, node-major            */
+  double *shot, *shot_dev, *first_shot;           /* n_elements (kg, -, kg)   */
+  pls_cycle_accumulator *acc;     /* n_elements                               */
+  pls_cycle_pump *pump;           /* n_elements                               */
+  double pumped, shot_total, stored_change;
+  pls_finding_list findings;
+};
+
+void
+pls_transient_options_init (pls_transient_options *o)
+{
+  if (o == NULL)
+    return;
+  memset (o, 0, sizeof *o);
+  o->air_pressure = 6e5;          /* 6 bar shop air, common practice */
+  o->cycle_rate = 2.0;
+  o->on_time = 0.05;
+  o->open_ramp = 2e-3;            /* a few ms: PHYSICS.md, applicators */
+  o->close_ramp = 2e-3;
+  o->segments_per_wavelength = 13.0;  /* first resonance within 1 %, PHYSICS.md */
+  o->min_segments = 1;
+  o->max_segments = 32;
+  /* Shot masses move by 3e-6 between rtol 1e-3 and 1e-4 on the test
+   * layouts (the waves after each valve event set the step, and their
+   * phase errors average out over a shot); 1e-3 halves the steps. */
+  o->rtol = 1e-3;
+  o->atol_pressure = 10.0;
+  o->atol_flow = 1e-9;
+  o->periodic_tolerance = 1e-4;
+  o->max_cycles = 200;
+  o->samples = 200;
+  o->uniformity_tolerance = 0.02;     /* common practice, no source */
+  o->recovery_fraction = 0.01;
+  o->safe_pressure = 1e5;             /* common practice, no source */
+  o->shutdown_time = 600.0;
+}
+
+pls_status
+pls__transient_check (const pls_network *net, const pls_transient_options *o, int cycle,
+                      pls_error *err)
+{
+  const struct
+  {
+    const char *name;
+    double value;
+    int positive;
+  } f[] = {
+    { "air_pressure", o->air_pressure, 0 },
+    { "segments_per_wavelength", o->segments_per_wavelength, 1 },
+    { "rtol", o->rtol, 1 },
+    { "atol_pressure", o->atol_pressure, 1 },
+    { "atol_flow", o->atol_flow, 1 },
+    { "periodic_tolerance", o->periodic_tolerance, 1 },
+    { "uniformity_tolerance", o->uniformity_tolerance, 1 },
+    { "recovery_fraction", o->recovery_fraction, 1 },
+    { "safe_pressure", o->safe_pressure, 1 },
+    { "shutdown_time", o->shutdown_time, 1 },
+    { "cycle_rate", o->cycle_rate, 1 },
+    { "open_ramp", o->open_ramp, 1 },
+    { "close_ramp", o->close_ramp, 1 },
+  };
+  size_t i, k;
+  double period;
+
+  for (i = 0; i < sizeof f / sizeof f[0]; i++)
+    if (!isfinite (f[i].value) || f[i].value < 0.0 || (f[i].positive && f[i].value == 0.0))
+      return pls__error (err, PLS_ERR_INVALID, -1, -1, "transient options: %s must be %s, "
+                         "not %g", f[i].name, f[i].positive ? "positive" : "finite and >= 0",
+                         f[i].value);
+  if (o->min_segments < 1 || o->max_segments < o->min_segments)
+    return pls__error (err, PLS_ERR_INVALID, -1, -1, "transient options: segments must "
+                       "satisfy 1 <= min_segments <= max_segments, not %d and %d",
+                       o->min_segments, o->max_segments);
+  if (o->max_cycles < 1 || o->samples < 2)
+    return pls__error (err, PLS_ERR_INVALID, -1, -1, "transient options: max_cycles must be "
+                       ">= 1 and samples >= 2, not %d and %d", o->max_cycles, o->samples);
+  if (net->n_nodes == 0 || net->n_elements == 0)
+    return pls__error (err, PLS_ERR_TOPOLOGY, -1, -1,
+                       "the network is empty: it needs nodes and parts");
+  if (!cycle)
+    return PLS_OK;
+  period = 1.0 / o->cycle_rate;
+  if (!(isfinite (o->on_time) && o->on_time > 0.0 && o->on_time < period))
+    return pls__error (err, PLS_ERR_INVALID, -1, -1, "firing schedule: on_time must be "
+                       "positive and shorter than the cycle (%g s), not %g s", period,
+                       o->on_time);
+  if (o->open_ramp > o->on_time)
+    return pls__error (err, PLS_ERR_INVALID, -1, -1, "firing schedule: open_ramp (%g s) "
+                       "must not exceed on_time (%g s)", o->open_ramp, o->on_time);
+  if (o->delays != NULL && o->delay_count != net->n_elements)
+    return pls__error (err, PLS_ERR_INVALID, -1, -1, "firing schedule: delays has %zu "
+                       "entries, the network %zu elements", o->delay_count, net->n_elements);
+  for (k = 0; k < net->n_elements; k++)
+    {
+      double d = o->delays != NULL ? o->delays[k] : 0.0;
+      char label[96];
+
+      if (net->elements[k].kind != PLS_ELEMENT_NOZZLE)
+        continue;
+      pls__element_label (net, (int) k, label, sizeof label);
+      if (!(isfinite (d) && d >= 0.0))
+        return pls__error (err, PLS_ERR_INVALID, (int) k, -1, "%s: firing delay must be "
+                           ">= 0 s, not %g s", label, d);
+      if (d + o->on_time + o->close_ramp > period * (1.0 + 1e-12))
+        return pls__error (err, PLS_ERR_INVALID, (int) k, -1, "%s: delay %g s + on_time + "
+                           "close_ramp must end within the cycle (%g s)", label, d, period);
+    }
+  return PLS_OK;
+}
+
+double
+pls__stored_volume (const pls__model *m)
+{
+  double v = 0.0;
+  size_t j;
+
+  for (j = 0; j < m->nf; j++)
+    {
+      int i = m->col_node[j];
+
+      v += pls__node_volume (m, (size_t) i, m->p[i], NULL);
+    }
+  return v;
+}
+
+void
+pls__stats_add (const pls__model *m, pls_transient_stats *s)
+{
+  s->steps += m->steps;
+  s->rejected += m->rejected;
+  s->newton_iterations += m->newton_iterations;
+  s->factorisations += m->factorisations;
+}
+
+pls_status
+pls__transient_start (const pls_network *net, const pls_transient_options *o,
+                      pls__model **out, pls_error *err)
+{
+  pls__model_options mo;
+  pls_steady_options so;
+  pls_steady_result *sr = NULL;
+  pls__schedule closed;
+  pls__model *m = NULL;
+  pls_status st;
+
+  *out = NULL;
+  memset (&mo, 0, sizeof mo);
+  mo.t_event = fmin (o->open_ramp, o->close_ramp);
+  mo.per_wavelength = o->segments_per_wavelength;
+  mo.min_segments = o->min_segments;
+  mo.max_segments = o->max_segments;
+  mo.air_on = 1;
+  mo.air_pressure = o->air_pressure;
+  st = pls__model_new (net, &mo, &m, err);
+  if (st != PLS_OK)
+    return st;
+  m->tol.rtol = o->rtol;
+  m->tol.atol_p = o->atol_pressure;
+  m->tol.atol_q = o->atol_flow;
+  m->tol.h_max = INFINITY;
+  m->tol.h_min = 1e-13;
+
+  /* Seed: the steady idle state, where the steady solve has one (parts it
+   * leaves out start at zero and are settled below). */
+  pls_steady_options_init (&so);
+  so.air_on = 1;
+  so.air_pressure = o->air_pressure;
+  so.applicators = PLS_APPLICATORS_NONE;
+  if (pls_solve_steady (net, &so, &sr, NULL) == PLS_OK && sr != NULL)
+    pls__model_from_steady (m, sr);
+  pls_steady_result_free (sr);
+
+  memset (&closed, 0, sizeof closed);
+  closed.kind = PLS__SCHED_CLOSED;
+  st = pls__settle (m, &closed, 0.0, err);
+  if (st != PLS_OK)
+    {
+      pls__model_free (m);
+      return st;
+    }
+  *out = m;
+  return PLS_OK;
+}
+
+/* ---- per-cycle bookkeeping ---------------------------------------------- */
+
+typedef struct
+{
+  pls_cycle_result *r;
+  double t_start, shot_end;
+  size_t next_sample;
+  double *pint;       /* n_nodes: integral of p over the cycle */
+  double *last_out;   /* n_nodes: last time out of the recovery band */
+  double frac;
+} pls_tracker;
+
+static void
+pls_tracker_reset (pls_tracker *tr, pls__model *m, double t_start)
+{
+  pls_cycle_result *r = tr->r;
+  const pls_network *net = m->net;
+  size_t i, k;
+
+  tr->t_start = t_start;
+  tr->next_sample = 1;
+  for (i = 0; i < r->n_nodes; i++)
+    {
+      r->pmin[i] = r->pmax[i] = m->p[i];
+      tr->pint[i] = 0.0;
+      tr->last_out[i] = -1.0;
+      r->series[i * r->samples] = m->p[i];
+    }
+  for (k = 0; k < r->n_elements; k++)
+    {
+      const pls_element *e = &net->elements[k];
+
+      if (e->kind == PLS_ELEMENT_ACCUMULATOR)
+        {
+          double p = m->p[m->chamber[k]];
+          double v = pls_accumulator_fluid_volume (&e->u.accumulator, p);
+
+          r->acc[k].min_pressure = r->acc[k].max_pressure = p;
+          r->acc[k].min_fluid_volume = r->acc[k].max_fluid_volume = v;
+        }
+      else if (e->kind == PLS_ELEMENT_PUMP && m->elem_link[k] >= 0)
+        r->pump[k].min_flow = r->pump[k].max_flow = m->q[m->elem_link[k]];
+    }
+}
+
+static double
+pls_quad (double t0, double tg, double t1, double y0, double yg, double y1, double t)
+{
+  /* Lagrange interpolation through the step's three points. */
+  double l0 = (t - tg) * (t - t1) / ((t0 - tg) * (t0 - t1));
+  double lg = (t - t0) * (t - t1) / ((tg - t0) * (tg - t1));
+  double l1 = (t - t0) * (t - tg) / ((t1 - t0) * (t1 - tg));
+
+  return l0 * y0 + lg * yg + l1 * y1;
+}
+
+static int
+pls_out_of_band (const pls_tracker *tr, size_t i, double p)
+{
+  double idle = tr->r->pidle[i];
+
+  return fabs (p - idle) > tr->frac * fabs (idle);
+}
+
+static pls_status
+pls_track_step (void *user_data, pls__model *m, double t0, double tg, double t1)
+{
+  pls_tracker *tr = user_data;
+  pls_cycle_result *r = tr->r;
+  const pls_network *net = m->net;
+  const double gam = PLS_GAMMA, h = t1 - t0;
+  const double w = 1.0 / (2.0 * (2.0 - gam)), w1 = (1.0 - gam) / (2.0 - gam);
+  double dts = r->period / (double) (r->samples - 1);
+  size_t i, k;
+
+  for (i = 0; i < r->n_nodes; i++)
+    {
+      double a = m->p0[i], b = m->pg[i], c = m->p[i];
+
+      r->pmin[i] = fmin (r->pmin[i], fmin (b, c));
+      r->pmax[i] = fmax (r->pmax[i], fmax (b, c));
+      tr->pint[i] += h * (w * (a + b) + w1 * c);
+      if (t1 > tr->shot_end)
+        {
+          if (pls_out_of_band (tr, i, c))
+            tr->last_out[i] = t1;
+          else if (pls_out_of_band (tr, i, a) && t0 >= tr->shot_end)
+            {
+              /* Crossing back into the band: linear interpolation. */
+              double idle = r->pidle[i], band = tr->frac * fabs (idle);
+              double da = fabs (a - idle) - band, dc = fabs (c - idle) - band;
+
+              tr->last_out[i] = t0 + h * da / (da - dc);
+            }
+        }
+    }
+  while (tr->next_sample < r->samples)
+    {
+      double ts = tr->t_start + dts * (double) tr->next_sample;
+
+      if (ts > t1 + 1e-9 * h)
+        break;
+      for (i = 0; i < r->n_nodes; i++)
+        r->series[i * r->samples + tr->next_sample]
+          = pls_quad (t0, tg, t1, m->p0[i], m->pg[i], m->p[i], fmin (ts, t1));
+      tr->next_sample++;
+    }
+  for (k = 0; k < r->n_elements; k++)
+    {
+      const pls_element *e = &net->elements[k];
+
+      if (e->kind == PLS_ELEMENT_ACCUMULATOR)
+        {
+          int c = m->chamber[k];
+          double pb = m->pg[c], pc = m->p[c];
+
+          r->acc[k].min_pressure = fmin (r->acc[k].min_pressure, fmin (pb, pc));
+          r->acc[k].max_pressure = fmax (r->acc[k].max_pressure, fmax (pb, pc));
+          r->acc[k].min_fluid_volume
+            = fmin (r->acc[k].min_fluid_volume,
+                    pls_accumulator_fluid_volume (&e->u.accumulator, fmin (pb, pc)));
+          r->acc[k].max_fluid_volume
+            = fmax (r->acc[k].max_fluid_volume,
+                    pls_accumulator_fluid_volume (&e->u.accumulator, fmax (pb, pc)));
+        }
+      else if (e->kind == PLS_ELEMENT_PUMP && m->elem_link[k] >= 0)
+        {
+          int l = m->elem_link[k];
+
+          r->pump[k].min_flow = fmin (r->pump[k].min_flow, fmin (m->qg[l], m->q[l]));
+          r->pump[k].max_flow = fmax (r->pump[k].max_flow, fmax (m->qg[l], m->q[l]));
+        }
+    }
+  return PLS_OK;
+}
+
+static pls_cycle_result *
+pls_cycle_result_new (const pls_network *net, size_t samples)
+{
+  const pls_allocator *a = &net->alloc;
+  size_t n = net->n_nodes, e = net->n_elements;
+  pls_cycle_result *r = pls__calloc (a, 1, sizeof *r);
+
+  if (r == NULL)
+    return NULL;
+  r->alloc = net->alloc;
+  r->n_nodes = n;
+  r->n_elements = e;
+  r->samples = samples;
+  r->segments = pls__calloc (a, e, sizeof *r->segments);
+  r->pmin = pls__calloc (a, n, sizeof (double));
+  r->pmax = pls__calloc (a, n, sizeof (double));
+  r->pmean = pls__calloc (a, n, sizeof (double));
+  r->pidle = pls__calloc (a, n, sizeof (double));
+  r->recovery = pls__calloc (a, n, sizeof (double));
+  r->series = pls__calloc (a, n * samples, sizeof (double));
+  r->shot = pls__calloc (a, e, sizeof (double));
+  r->shot_dev = pls__calloc (a, e, sizeof (double));
+  r->first_shot = pls__calloc (a, e, sizeof (double));
+  r->acc = pls__calloc (a, e, sizeof *r->acc);
+  r->pump = pls__calloc (a, e, sizeof *r->pump);
+  if (!r->segments || !r->pmin || !r->pmax || !r->pmean || !r->pidle || !r->recovery
+      || !r->series || !r->shot || !r->shot_dev || !r->first_shot || !r->acc || !r->pump)
+    {
+      pls_cycle_result_free (r);
+      return NULL;
+    }
+  return r;
+}
+
+void
+pls_cycle_result_free (pls_cycle_result *r)
+{
+  pls_allocator a;
+
+  if (r == NULL)
+    return;
+  a = r->alloc;
+  pls__free (&a, r->segments);
+  pls__free (&a, r->pmin);
+  pls__free (&a, r->pmax);
+  pls__free (&a, r->pmean);
+  pls__free (&a, r->pidle);
+  pls__free (&a, r->recovery);
+  pls__free (&a, r->series);
+  pls__free (&a, r->shot);
+  pls__free (&a, r->shot_dev);
+  pls__free (&a, r->first_shot);
+  pls__free (&a, r->acc);
+  pls__free (&a, r->pump);
+  pls__free (&a, r->findings.items);
+  pls__free (&a, r);
+}
+
+/* Fills the per-cycle figures of r after the cycle [t0, t0 + T]. */
+static pls_status
+pls_cycle_finish (pls_cycle_result *r, pls__model *m, pls_tracker *tr, double v_start,
+                  const pls_transient_options *o)
+{
+  const pls_network *net = m->net;
+  const pls_allocator *a = &r->alloc;
+  double rho = net->fluid.density, mean = 0.0;
+  size_t i, k, n_app = 0, n_bad = 0;
+  int worst_node = -1;
+  double worst_dev = 0.0;
+
+  for (i = 0; i < r->n_nodes; i++)
+    {
+      r->pmean[i] = tr->pint[i] / r->period;
+      if (net->nodes[i].fixed)
+        r->recovery[i] = 0.0;
+      else if (pls_out_of_band (tr, i, m->p[i]))
+        {
+          r->recovery[i] = -1.0;
+          n_bad++;
+          if (worst_node < 0 || fabs (m->p[i] - r->pidle[i]) > worst_dev)
+            {
+              worst_node = (int) i;
+              worst_dev = fabs (m->p[i] - r->pidle[i]);
+            }
+        }
+      else
+        r->recovery[i] = tr->last_out[i] < 0.0 ? 0.0
+                         : tr->last_out[i] - tr->shot_end;
+    }
+  r->pumped = r->shot_total = 0.0;
+  for (k = 0; k < r->n_elements; k++)
+    {
+      const pls_element *e = &net->elements[k];
+      int l = m->elem_link[k];
+
+      if (e->kind == PLS_ELEMENT_NOZZLE && l >= 0)
+        {
+          r->shot[k] = rho * m->qint[l];
+          r->shot_total += m->qint[l];
+          mean += r->shot[k];
+          n_app++;
+        }
+      else if (e->kind == PLS_ELEMENT_PUMP && l >= 0)
+        {
+          r->pump[k].volume = m->qint[l];
+          r->pump[k].mean_flow = m->qint[l] / r->period;
+          r->pumped += m->qint[l];
+        }
+    }
+  r->stored_change = pls__stored_volume (m) - v_start;
+  if (n_app > 0)
+    mean /= (double) n_app;
+  for (k = 0; k < r->n_elements; k++)
+    if (net->elements[k].kind == PLS_ELEMENT_NOZZLE)
+      r->shot_dev[k] = mean > 0.0 ? (r->shot[k] - mean) / mean : 0.0;
+
+  /* Findings of the reported cycle. */
+  r->findings.count = 0;
+  if (worst_node >= 0)
+    {
+      char label[96];
+
+      pls__node_label (net, worst_node, label, sizeof label);
+      if (pls__finding_add (&r->findings, a, PLS_SEVERITY_WARNING, "no-recovery", -1,
+                            worst_node, m->p[worst_node], r->pidle[worst_node],
+                            "%s is not back within %g %% of its idle pressure before the "
+                            "next shot (%zu node%s in all)", label,
+                            100.0 * o->recovery_fraction, n_bad, n_bad == 1 ? "" : "s")
+          != PLS_OK)
+        return PLS_ERR_NOMEM;
+    }
+  for (k = 0; k < r->n_elements; k++)
+    if (net->elements[k].kind == PLS_ELEMENT_NOZZLE
+        && fabs (r->shot_dev[k]) > o->uniformity_tolerance)
+      {
+        char label[96];
+
+        pls__element_label (net, (int) k, label, sizeof label);
+        if (pls__finding_add (&r->findings, a, PLS_SEVERITY_WARNING, "shot-uniformity",
+                              (int) k, net->elements[k].a, r->shot_dev[k],
+                              o->uniformity_tolerance, "%s: shot %.4g g is %+.2f %% off "
+                              "the mean along the manifold (tolerance %g %%)", label,
+                              1e3 * r->shot[k], 100.0 * r->shot_dev[k],
+                              100.0 * o->uniformity_tolerance) != PLS_OK)
+          return PLS_ERR_NOMEM;
+      }
+  return PLS_OK;
+}
+
+/* Extrapolation of the cycle map to its fixed point (Skelboe, "Computation
+ * of the periodic steady-state response of nonlinear networks by
+ * extrapolation methods", IEEE Trans. Circuits Syst. 27(3), 1980, in its
+ * simplest, one-mode form).  Near the periodic state the change over a
+ * cycle shrinks by the map's dominant eigenvalue lambda a cycle, here the
+ * slow charging of the accumulators and hoses by the pump; with d_k the
+ * change of cycle k, lambda = <d_k, d_k-1> / <d_k-1, d_k-1>, and the fixed
+ * point is x_k + lambda / (1 - lambda) d_k.  Applied only when two
+ * successive changes agree with a single mode (residual below 30 %), never
+ * twice in a row, so the convergence test always sees a plain cycle. */
+static void
+pls_extrapolate (pls__model *m, const double *pprev, double *dprev, const double *qprev,
+                 double *dqprev, double pref, int *have_prev)
+{
+  double dd = 0.0, dp = 0.0, pp = 0.0, qref = 0.0, lambda, res = 0.0;
+  size_t i, k;
+
+  for (k = 0; k < m->n_links; k++)
+    qref = fmax (qref, fabs (m->q[k]));
+  qref = fmax (qref, 1e-12);
+  for (i = 0; i < m->n_nodes; i++)
+    {
+      double d = (m->p[i] - pprev[i]) / pref;
+
+      dd += d * d;
+      dp += d * dprev[i];
+      pp += dprev[i] * dprev[i];
+    }
+  for (k = 0; k < m->n_links; k++)
+    {
+      double d = (m->q[k] - qprev[k]) / qref;
+
+      dd += d * d;
+      dp += d * dqprev[k];
+      pp += dqprev[k] * dqprev[k];
+    }
+  lambda = *have_prev && pp > 0.0 ? dp / pp : 0.0;
+  /* Residual of the one-mode fit: |d - lambda d_prev|^2. */
+  res = dd - 2.0 * lambda * dp + lambda * lambda * pp;
+  if (*have_prev && lambda > 0.0 && lambda < 0.995 && res < 0.09 * dd)
+    {
+      double f = lambda / (1.0 - lambda);
+
+      for (i = 0; i < m->n_nodes; i++)
+        if (!m->nodes[i].fixed)
+          m->p[i] += f * (m->p[i] - pprev[i]);
+      for (k = 0; k < m->n_links; k++)
+        m->q[k] += f * (m->q[k] - qprev[k]);
+      *have_prev = 0;
+      return;
+    }
+  for (i = 0; i < m->n_nodes; i++)
+    dprev[i] = (m->p[i] - pprev[i]) / pref;
+  for (k = 0; k < m->n_links; k++)
+    dqprev[k] = (m->q[k] - qprev[k]) / qref;
+  *have_prev = 1;
+}
+
+/* The cycle run on a started model; r gets the results. */
+static pls_status
+pls_run_cycles (pls__model *m, const pls_transient_options *o, pls_cycle_result *r,
+                pls_error *err)
+{
+  const pls_network *net = m->net;
+  const pls_allocator *a = &net->alloc;
+  pls__schedule s;
+  pls_tracker tr;
+  double *app_delay = NULL, *pprev = NULL, pref = 1.0, t = 0.0, max_delay = 0.0;
+  double *dprev = NULL, *qprev = NULL, *dqprev = NULL;
+  pls_status st = PLS_OK;
+  size_t i, j;
+  int c, have_prev = 0;
+
+  memset (&tr, 0, sizeof tr);
+  r->period = 1.0 / o->cycle_rate;
+  app_delay = pls__calloc (a, m->n_app + 1, sizeof *app_delay);
+  pprev = pls__calloc (a, m->n_nodes, sizeof *pprev);
+  dprev = pls__calloc (a, m->n_nodes, sizeof *dprev);
+  qprev = pls__calloc (a, m->n_links + 1, sizeof *qprev);
+  dqprev = pls__calloc (a, m->n_links + 1, sizeof *dqprev);
+  tr.pint = pls__calloc (a, r->n_nodes, sizeof (double));
+  tr.last_out = pls__calloc (a, r->n_nodes, sizeof (double));
+  if (!app_delay || !pprev || !dprev || !qprev || !dqprev || !tr.pint || !tr.last_out)
+    {
+      st = pls__error (err, PLS_ERR_NOMEM, -1, -1, "out of memory in the cycle run");
+      goto out;
+    }
+  for (j = 0; j < m->n_app; j++)
+    {
+      app_delay[j] = o->delays != NULL ? o->delays[m->app_elem[j]] : 0.0;
+      max_delay = fmax (max_delay, app_delay[j]);
+    }
+  memset (&s, 0, sizeof s);
+  s.kind = PLS__SCHED_FIRING;
+  s.period = r->period;
+  s.on_time = o->on_time;
+  s.open_ramp = o->open_ramp;
+  s.close_ramp = o->close_ramp;
+  s.delay = app_delay;
+  m->tol.h_max = r->period / 20.0;
+  m->tol.h_min = 1e-10 * r->period;
+
+  tr.r = r;
+  tr.frac = o->recovery_fraction;
+  tr.shot_end = max_delay + o->on_time + o->close_ramp;
+  for (i = 0; i < r->n_nodes; i++)
+    {
+      r->pidle[i] = m->p[i];
+      pref = fmax (pref, fabs (m->p[i]));
+    }
+  memcpy (pprev, m->p, m->n_nodes * sizeof *pprev);
+  memcpy (qprev, m->q, m->n_links * sizeof *qprev);
+  for (c = 1; c <= o->max_cycles; c++)
+    {
+      double v_start = pls__stored_volume (m), change = 0.0;
+      size_t k;
+
+      for (k = 0; k < m->n_links; k++)
+        m->qint[k] = 0.0;
+      pls_tracker_reset (&tr, m, t);
+      tr.shot_end = t + max_delay + o->on_time + o->close_ramp;
+      st = pls__integrate (m, &s, t, t + r->period, pls_track_step, &tr, err);
+      if (st != PLS_OK)
+        goto out;
+      t += r->period;
+      st = pls_cycle_finish (r, m, &tr, v_start, o);
+      if (st != PLS_OK)
+        {
+          st = pls__error (err, st, -1, -1, "out of memory in the cycle run");
+          goto out;
+        }
+      if (c == 1)
+        memcpy (r->first_shot, r->shot, r->n_elements * sizeof *r->shot);
+      for (i = 0; i < m->n_nodes; i++)
+        if (!m->nodes[i].fixed)
+          change = fmax (change, fabs (m->p[i] - pprev[i]) / pref);
+      r->cycles = c;
+      r->change = change;
+      if (change < o->periodic_tolerance)
+        {
+          r->periodic = 1;
+          break;
+        }
+      pls_extrapolate (m, pprev, dprev, qprev, dqprev, pref, &have_prev);
+      memcpy (pprev, m->p, m->n_nodes * sizeof *pprev);
+      memcpy (qprev, m->q, m->n_links * sizeof *qprev);
+    }
+  if (!r->periodic
+      && pls__finding_add (&r->findings, a, PLS_SEVERITY_WARNING, "not-periodic", -1, -1,
+                           r->change, o->periodic_tolerance, "the firing cycle was not "
+                           "periodic after %d cycles (change %.3g, tolerance %.3g)",
+                           r->cycles, r->change, o->periodic_tolerance) != PLS_OK)
+    st = pls__error (err, PLS_ERR_NOMEM, -1, -1, "out of memory in the cycle run");
+
+out:
+  pls__free (a, app_delay);
+  pls__free (a, pprev);
+  pls__free (a, dprev);
+  pls__free (a, qprev);
+  pls__free (a, dqprev);
+  pls__free (a, tr.pint);
+  pls__free (a, tr.last_out);
+  return st;
+}
+
+pls_status
+pls_solve_cycle (const pls_network *net, const pls_transient_options *options,
+                 pls_cycle_result **out, pls_error *err)
+{
+  pls_transient_options defaults;
+  const pls_transient_options *o = options;
+  pls_cycle_result *r = NULL;
+  pls__model *m = NULL;
+  double t0 = pls__now ();
+  pls_status st;
+
+  pls__error_clear (err);
+  if (out == NULL)
+    return pls__error (err, PLS_ERR_INVALID, -1, -1, "no place given for the result");
+  *out = NULL;
+  if (net == NULL)
+    return pls__error (err, PLS_ERR_INVALID, -1, -1, "no network given");
+  if (o == NULL)
+    {
+      pls_transient_options_init (&defaults);
+      o = &defaults;
+    }
+  st = pls__transient_check (net, o, 1, err);
+  if (st != PLS_OK)
+    return st;
+  r = pls_cycle_result_new (net, (size_t) o->samples);
+  if (r == NULL)
+    return pls__error (err, PLS_ERR_NOMEM, -1, -1, "out of memory in the cycle run");
+  st = pls__transient_start (net, o, &m, err);
+  if (st == PLS_OK)
+    {
+      memcpy (r->segments, m->segments, net->n_elements * sizeof *r->segments);
+      st = pls_run_cycles (m, o, r, err);
+    }
+  if (m != NULL)
+    pls__stats_add (m, &r->stats);
+  pls__model_free (m);
+  if (st != PLS_OK)
+    {
+      pls_cycle_result_free (r);
+      return st;
+    }
+  r->stats.wall_seconds = pls__now () - t0;
+  *out = r;
+  return PLS_OK;
+}
+
+/* ---- read-back ----------------------------------------------------------- */
+
+#define NODE_OK(r, i) ((r) != NULL && (i) >= 0 && (size_t) (i) < (r)->n_nodes)
+#define ELEM_OK(r, k) ((r) != NULL && (k) >= 0 && (size_t) (k) < (r)->n_elements)
+
+int
+pls_cycle_result_cycles (const pls_cycle_result *r)
+{
+  return r != NULL ? r->cycles : 0;
+}
+
+int
+pls_cycle_result_periodic (const pls_cycle_result *r)
+{
+  return r != NULL ? r->periodic : 0;
+}
+
+double
+pls_cycle_result_change (const pls_cycle_result *r)
+{
+  return r != NULL ? r->change : 0.0;
+}
+
+void
+pls_cycle_result_stats (const pls_cycle_result *r, pls_transient_stats *out)
+{
+  if (out == NULL)
+    return;
+  if (r == NULL)
+    memset (out, 0, sizeof *out);
+  else
+    *out = r->stats;
+}
+
+int
+pls_cycle_result_segments (const pls_cycle_result *r, int element)
+{
+  return ELEM_OK (r, element) ? r->segments[element] : 0;
+}
+
+double
+pls_cycle_node_min (const pls_cycle_result *r, int node)
+{
+  return NODE_OK (r, node) ? r->pmin[node] : 0.0;
+}
+
+double
+pls_cycle_node_max (const pls_cycle_result *r, int node)
+{
+  return NODE_OK (r, node) ? r->pmax[node] : 0.0;
+}
+
+double
+pls_cycle_node_mean (const pls_cycle_result *r, int node)
+{
+  return NODE_OK (r, node) ? r->pmean[node] : 0.0;
+}
+
+double
+pls_cycle_node_idle (const pls_cycle_result *r, int node)
+{
+  return NODE_OK (r, node) ? r->pidle[node] : 0.0;
+}
+
+double
+pls_cycle_node_recovery (const pls_cycle_result *r, int node)
+{
+  return NODE_OK (r, node) ? r->recovery[node] : 0.0;
+}
+
+size_t
+pls_cycle_sample_count (const pls_cycle_result *r)
+{
+  return r != NULL ? r->samples : 0;
+}
+
+double
+pls_cycle_sample_time (const pls_cycle_result *r, size_t i)
+{
+  if (r == NULL || i >= r->samples)
+    return 0.0;
+  return r->period * (double) i / (double) (r->samples - 1);
+}
+
+double
+pls_cycle_sample_pressure (const pls_cycle_result *r, int node, size_t i)
+{
+  if (!NODE_OK (r, node) || i >= r->samples)
+    return 0.0;
+  return r->series[(size_t) node * r->samples + i];
+}
+
+double
+pls_cycle_shot_mass (const pls_cycle_result *r, int element)
+{
+  return ELEM_OK (r, element) ? r->shot[element] : 0.0;
+}
+
+double
+pls_cycle_shot_deviation (const pls_cycle_result *r, int element)
+{
+  return ELEM_OK (r, element) ? r->shot_dev[element] : 0.0;
+}
+
+double
+pls_cycle_first_shot_mass (const pls_cycle_result *r, int element)
+{
+  return ELEM_OK (r, element) ? r->first_shot[element] : 0.0;
+}
+
+pls_status
+pls_cycle_accumulator_swing (const pls_cycle_result *r, int element,
+                             pls_cycle_accumulator *out)
+{
+  if (out == NULL)
+    return PLS_ERR_INVALID;
+  memset (out, 0, sizeof *out);
+  if (!ELEM_OK (r, element))
+    return PLS_ERR_INVALID;
+  *out = r->acc[element];
+  return PLS_OK;
+}
+
+pls_status
+pls_cycle_pump_flow (const pls_cycle_result *r, int element, pls_cycle_pump *out)
+{
+  if (out == NULL)
+    return PLS_ERR_INVALID;
+  memset (out, 0, sizeof *out);
+  if (!ELEM_OK (r, element))
+    return PLS_ERR_INVALID;
+  *out = r->pump[element];
+  return PLS_OK;
+}
+
+void
+pls_cycle_result_volumes (const pls_cycle_result *r, double *pumped, double *shot,
+                          double *stored_change)
+{
+  if (pumped != NULL)
+    *pumped = r != NULL ? r->pumped : 0.0;
+  if (shot != NULL)
+    *shot = r != NULL ? r->shot_total : 0.0;
+  if (stored_change != NULL)
+    *stored_change = r != NULL ? r->stored_change : 0.0;
+}
+
+size_t
+pls_cycle_finding_count (const pls_cycle_result *r)
+{
+  return r != NULL ? r->findings.count : 0;
+}
+
+const pls_finding *
+pls_cycle_finding (const pls_cycle_result *r, size_t index)
+{
+  if (r == NULL || index >= r->findings.count)
+    return NULL;
+  return &r->findings.items[index];
+}
+
+/* ---- highest rate -------------------------------------------------------- */
+
+/* 1 if every shot at this rate is within the tolerance of the mean and of
+ * its first shot from idle. */
+static pls_status
+pls_rate_ok (const pls_network *net, const pls_transient_options *base, double rate,
+             int *ok, pls_transient_stats *stats, pls_error *err)
+{
+  pls_transient_options o = *base;
+  pls_cycle_result *r = NULL;
+  pls_status st;
+  size_t k;
+
+  o.cycle_rate = rate;
+  st = pls_solve_cycle (net, &o, &r, err);
+  if (st != PLS_OK)
+    return st;
+  *ok = 1;
+  for (k = 0; k < r->n_elements; k++)
+    {
+      double first = r->first_shot[k];
+
+      if (net->elements[k].kind != PLS_ELEMENT_NOZZLE)
+        continue;
+      if (fabs (r->shot_dev[k]) > o.uniformity_tolerance
+          || (first > 0.0 && fabs (r->shot[k] - first) > o.uniformity_tolerance * first))
+        *ok = 0;
+    }
+  if (stats != NULL)
+    {
+      stats->steps += r->stats.steps;
+      stats->rejected += r->stats.rejected;
+      stats->newton_iterations += r->stats.newton_iterations;
+      stats->factorisations += r->stats.factorisations;
+      stats->wall_seconds += r->stats.wall_seconds;
+    }
+  pls_cycle_result_free (r);
+  return PLS_OK;
+}
+
+pls_status
+pls_cycle_max_rate (const pls_network *net, const pls_transient_options *options,
+                    double rate_low, double *rate, pls_transient_stats *stats,
+                    pls_error *err)
+{
+  pls_transient_options defaults;
+  const pls_transient_options *o = options;
+  double lo = rate_low, hi, span = 0.0;
+  pls_status st;
+  size_t k;
+  int ok = 0;
+
+  pls__error_clear (err);
+  if (rate == NULL)
+    return pls__error (err, PLS_ERR_INVALID, -1, -1, "no place given for the rate");
+  *rate = 0.0;
+  if (net == NULL)
+    return pls__error (err, PLS_ERR_INVALID, -1, -1, "no network given");
+  if (o == NULL)
+    {
+      pls_transient_options_init (&defaults);
+      o = &defaults;
+    }
+  if (stats != NULL)
+    memset (stats, 0, sizeof *stats);
+  /* The fastest schedule the valves allow: the longest delay + on-time +
+   * closing ramp fills the whole cycle. */
+  for (k = 0; k < net->n_elements; k++)
+    if (net->elements[k].kind == PLS_ELEMENT_NOZZLE && o->delays != NULL
+        && k < o->delay_count)
+      span = fmax (span, o->delays[k]);
+  span += o->on_time + o->close_ramp;
+  if (!(span > 0.0) || !isfinite (span))
+    return pls__error (err, PLS_ERR_INVALID, -1, -1, "firing schedule: on_time must be "
+                       "positive, not %g s", o->on_time);
+  hi = (1.0 - 1e-9) / span;
+  if (!(isfinite (rate_low) && rate_low > 0.0 && rate_low < hi))
+    return pls__error (err, PLS_ERR_INVALID, -1, -1, "rate search: the lowest rate must be "
+                       "positive and below %g /s, not %g /s", hi, rate_low);
+  st = pls_rate_ok (net, o, lo, &ok, stats, err);
+  if (st != PLS_OK || !ok)
+    return st;
+  st = pls_rate_ok (net, o, hi, &ok, stats, err);
+  if (st != PLS_OK)
+    return st;
+  if (ok)
+    {
+      *rate = hi;
+      return PLS_OK;
+    }
+  while (hi - lo > 0.01 * lo)
+    {
+      double mid = 0.5 * (lo + hi);
+
+      st = pls_rate_ok (net, o, mid, &ok, stats, err);
+      if (st != PLS_OK)
+        return st;
+      if (ok)
+        lo = mid;
+      else
+        hi = mid;
+    }
+  *rate = lo;
+  return PLS_OK;
+}

@@ -1,0 +1,856 @@
+/* SPDX-License-Identifier: GPL-3.0-or-later
+ *
+ * pls-integrate.c: the implicit integrator of the lumped model.
+ *
+ * TR-BDF2 (Bank, Coughran, Fichtner, Grosse, Rose & Smith, "Transient
+ * simulation of silicon devices and circuits", IEEE Trans. CAD 4(4), 1985;
+ * Hosea & Shampine, "Analysis and implementation of TR-BDF2", Appl. Numer.
+ * Math. 20, 1996) with gamma = 2 - sqrt 2: a trapezoidal stage to
+ * t + gamma h, then a BDF2 stage to t + h.  It is one-step (restarts at
+ * every valve event cost nothing), L-stable, second order, and with this
+ * gamma both stages have the same coefficient kappa = gamma h / 2 =
+ * (1 - gamma) h / (2 - gamma), so both use the same kind of nodal matrix.
+ *
+ * Written on the conserved quantities m(y) (stored volume V(p) of a node,
+ * I q of an inertial link) with the force f(y) (inflow of a node, P_a - P_b
+ * - h(q) of a link), each stage solves m(y) - kappa f(y) = m_hist by
+ * Newton.  Eliminating each link's flow update from its linearised stage
+ * equation, dq = g (dP_a - dP_b - r), g = 1 / (I/kappa + dh/dq), leaves the
+ * nodal system (C/kappa + B G B^T) dp = rhs: SPD, with the pattern of the
+ * steady solve, analysed once by CHOLMOD and factored numerically at each
+ * Newton iteration.  Algebraic links (I = 0) enter the same way.
+ *
+ * Because the node equations are written on V(p) (conservative form) and
+ * every flow's integral is accumulated with the method's own quadrature
+ * weights (V_{n+1} - V_n = h [w (f_n + f_g) + w1 f_{n+1}]), the volume
+ * balance of the discrete solution holds to the Newton tolerance.
+ *
+ * Local error: the estimate of Bank et al. (1985), eq. 30,
+ *   e = 2 C h [f_n / gamma - f_g / (gamma (1 - gamma)) + f_{n+1} / (1 - gamma)],
+ *   C = (-3 gamma^2 + 4 gamma - 2) / (12 (2 - gamma)),
+ * filtered through the stage matrix, e <- (M - kappa J)^-1 M e, as Hairer &
+ * Wanner do for stiff problems (Solving ODEs II, 2nd ed., sec. IV.8, eq.
+ * 8.20) so that stiff, fast-decaying components do not force tiny steps.
+ * Steps are accepted when the largest scaled error is <= 1 and resized by
+ * 0.9 err^(-1/3) within [0.2, 4].
+ */
+
+#include "config.h"
+
+#include <math.h>
+#include <string.h>
+
+#include "pls-transient-private.h"
+
+#define PLS_GAMMA (2.0 - 1.41421356237309504880)
+#define PLS_NEWTON_MAX 12
+/* Newton stops when the update is below this fraction of the local error
+ * tolerance (Hairer & Wanner sec. IV.8 suggest 0.01 to 0.1; smaller keeps
+ * the volume balance tighter at a small cost). */
+#define PLS_NEWTON_FRACTION 1e-3
+
+static double
+pls_delta_p (const pls__model *m, const pls__tlink *l, const double *p)
+{
+  const pls__tnode *na = &m->nodes[l->a];
+  double pa = p[l->a] + m->rho_g * na->elevation;
+  double pb = l->b >= 0 ? p[l->b] + m->rho_g * m->nodes[l->b].elevation
+                        : m->rho_g * na->elevation;
+
+  return pa - pb;
+}
+
+/* Law of link k at flow q. */
+static void
+pls_link_law (const pls__model *m, size_t k, double q, pls_drop *d)
+{
+  const pls__tlink *l = &m->links[k];
+  const pls_element *e = &m->net->elements[l->elem];
+
+  switch (l->kind)
+    {
+    case PLS__LINK_SEGMENT:
+      pls_line_drop (&m->net->fluid, &e->u.line, q, d, NULL);
+      d->h *= l->scale;
+      d->dh_dq *= l->scale;
+      break;
+    case PLS__LINK_NECK:
+      pls_line_drop (&m->net->fluid, &l->neck, q, d, NULL);
+      break;
+    case PLS__LINK_NOZZLE:
+      {
+        /* Valve opening s as a fraction of the flow area: q = s Q_open(dp),
+         * h_s(q) = h_open(q / s). */
+        double s = m->open[l->app];
+
+        pls__element_drop (m->net, e, m->air_pressure, q / s, d);
+        d->dh_dq /= s;
+      }
+      break;
+    case PLS__LINK_ELEMENT:
+    default:
+      pls__element_drop (m->net, e, m->air_pressure, q, d);
+      break;
+    }
+}
+
+/* A link that carries flow now: active in the air state, and for an
+ * applicator a valve that is not shut. */
+static int
+pls_link_on (const pls__model *m, size_t k)
+{
+  const pls__tlink *l = &m->links[k];
+
+  if (!m->active[k])
+    return 0;
+  if (l->kind == PLS__LINK_NOZZLE && !(m->open[l->app] > 0.0))
+    return 0;
+  return 1;
+}
+
+static pls_status
+pls_law_error (const pls__model *m, size_t k, double q, const pls_drop *d, pls_error *err)
+{
+  char label[96];
+  int elem = m->links[k].elem;
+
+  pls__element_label (m->net, elem, label, sizeof label);
+  return pls__error (err, PLS_ERR_INVALID, elem, -1,
+                     "%s: its law gave drop %g Pa, slope %g at flow %g m^3/s "
+                     "(needs finite values and a positive slope)", label, d->h, d->dh_dq, q);
+}
+
+/* Forces at state (p, q): fv = inflow of each node (m^3/s), fq = P_a - P_b
+ * - h(q) of each inertial link (Pa). */
+static pls_status
+pls_forces (const pls__model *m, const double *p, const double *q, double *fv, double *fq,
+            pls_error *err)
+{
+  size_t k;
+
+  memset (fv, 0, m->n_nodes * sizeof *fv);
+  for (k = 0; k < m->n_links; k++)
+    {
+      const pls__tlink *l = &m->links[k];
+
+      fq[k] = 0.0;
+      if (!pls_link_on (m, k))
+        continue;
+      fv[l->a] -= q[k];
+      if (l->b >= 0)
+        fv[l->b] += q[k];
+      if (l->inertance > 0.0)
+        {
+          pls_drop d;
+
+          pls_link_law (m, k, q[k], &d);
+          if (!isfinite (d.h) || !isfinite (d.dh_dq) || !(d.dh_dq > 0.0))
+            return pls_law_error (m, k, q[k], &d, err);
+          fq[k] = pls_delta_p (m, l, p) - d.h;
+        }
+    }
+  return PLS_OK;
+}
+
+static pls_status
+pls_cholmod_failed (pls__model *m, pls_error *err, const char *what)
+{
+  if (m->c.status == CHOLMOD_OUT_OF_MEMORY || m->c.status == CHOLMOD_TOO_LARGE)
+    return pls__error (err, PLS_ERR_NOMEM, -1, -1, "out of memory in the sparse %s", what);
+  return pls__error (err, PLS_ERR_LINALG, -1, -1,
+                     "the sparse %s failed (CHOLMOD status %d)", what, m->c.status);
+}
+
+/* Factors the nodal matrix C/kappa + B G B^T with m->g and the node
+ * slopes in m->ev (per column). */
+static pls_status
+pls_factor (pls__model *m, double kappa, pls_error *err)
+{
+  double *ax;
+  size_t k, j;
+
+  if (m->nf == 0)
+    return PLS_OK;
+  ax = m->A->x;
+  memset (ax, 0, m->w.nnz * sizeof *ax);
+  for (j = 0; j < m->nf; j++)
+    ax[m->w.ap[j + 1] - 1] = m->ev[j] / kappa;   /* diagonal: last in column */
+  for (k = 0; k < m->n_links; k++)
+    {
+      const pls_link *pl = &m->w.links[k];
+      double g = m->g[k];
+
+      if (g == 0.0)
+        continue;
+      if (pl->ca >= 0)
+        ax[pl->pa] += g;
+      if (pl->cb >= 0)
+        ax[pl->pb] += g;
+      if (pl->pab >= 0)
+        ax[pl->pab] -= g;
+    }
+  m->factorisations++;
+  if (!cholmod_factorize (m->A, m->L, &m->c) || m->c.status < CHOLMOD_OK)
+    return pls_cholmod_failed (m, err, "factorisation");
+  if (m->L->minor < m->L->n)
+    return pls__error (err, PLS_ERR_LINALG, -1, m->col_node[m->L->minor],
+                       "the time-domain nodal matrix lost positive definiteness "
+                       "near model node %d", m->col_node[m->L->minor]);
+  return PLS_OK;
+}
+
+/* Solves the linearised stage system with node residuals m->rn (per model
+ * node, flow units) and link residuals m->rl (pressure units), on the
+ * factor and conductances in place: into m->dp (per model node, 0 at
+ * fixed ones) and m->dq. */
+static pls_status
+pls_linear_solve (pls__model *m, pls_error *err)
+{
+  size_t k, j;
+
+  memset (m->dp, 0, m->n_nodes * sizeof *m->dp);
+  if (m->nf > 0)
+    {
+      double *b = m->B->x;
+
+      for (j = 0; j < m->nf; j++)
+        b[j] = -m->rn[m->col_node[j]];
+      for (k = 0; k < m->n_links; k++)
+        {
+          const pls_link *pl = &m->w.links[k];
+          double gr = m->g[k] * m->rl[k];
+
+          if (gr == 0.0)
+            continue;
+          if (pl->ca >= 0)
+            b[pl->ca] += gr;
+          if (pl->cb >= 0)
+            b[pl->cb] -= gr;
+        }
+      if (!cholmod_solve2 (CHOLMOD_A, m->L, m->B, NULL, &m->X, NULL, &m->Y, &m->E, &m->c))
+        return pls_cholmod_failed (m, err, "solve");
+      for (j = 0; j < m->nf; j++)
+        m->dp[m->col_node[j]] = ((double *) m->X->x)[j];
+    }
+  for (k = 0; k < m->n_links; k++)
+    {
+      const pls__tlink *l = &m->links[k];
+      double da = m->dp[l->a], db = l->b >= 0 ? m->dp[l->b] : 0.0;
+
+      m->dq[k] = m->g[k] * (da - db - m->rl[k]);
+    }
+  return PLS_OK;
+}
+
+/* Newton on one stage: V(p) - hist_v = kappa * inflow at the free nodes,
+ * I (q - hist_q) / kappa + h(q) = dP on the links (I = 0: algebraic).
+ * Starts from m->p, m->q; leaves the solution there.  *converged = 0 if
+ * the iteration stalled or diverged. */
+static pls_status
+pls_stage (pls__model *m, double kappa, int *converged, pls_error *err)
+{
+  const pls__tolerances *tol = &m->tol;
+  double prev = INFINITY, prev_fresh = INFINITY;
+  pls_status st;
+  size_t k, i;
+  int it, slow = 0;
+
+  *converged = 0;
+  for (it = 0; it < PLS_NEWTON_MAX; it++)
+    {
+      double worst = 0.0;
+      int refactor = !m->fact_valid || m->fact_kappa != kappa || slow;
+
+      m->newton_iterations++;
+      for (i = 0; i < m->n_nodes; i++)
+        m->rn[i] = 0.0;
+      for (k = 0; k < m->n_links; k++)
+        {
+          const pls__tlink *l = &m->links[k];
+          pls_drop d;
+
+          m->rl[k] = 0.0;
+          m->dh[k] = 0.0;   /* the conductance a fresh Jacobian would use */
+          if (!pls_link_on (m, k))
+            {
+              m->q[k] = 0.0;
+              if (m->g[k] != 0.0)
+                refactor = 1;
+              continue;
+            }
+          pls_link_law (m, k, m->q[k], &d);
+          if (!isfinite (d.h) || !isfinite (d.dh_dq) || !(d.dh_dq > 0.0))
+            return pls_law_error (m, k, m->q[k], &d, err);
+          m->rl[k] = d.h - pls_delta_p (m, l, m->p);
+          if (l->inertance > 0.0)
+            m->rl[k] += l->inertance * (m->q[k] - m->hist_q[k]) / kappa;
+          m->dh[k] = 1.0 / (l->inertance / kappa + d.dh_dq);
+          if (m->g[k] == 0.0)
+            refactor = 1;
+          m->rn[l->a] += m->q[k];
+          if (l->b >= 0)
+            m->rn[l->b] -= m->q[k];
+        }
+      for (i = 0; i < m->nf; i++)
+        {
+          int n = m->col_node[i];
+          double slope, v = pls__node_volume (m, (size_t) n, m->p[n], &slope);
+
+          m->rn[n] += (v - m->hist_v[n]) / kappa;
+          if (refactor)
+            m->ev[i] = slope;
+        }
+      /* Simplified Newton (Hairer & Wanner, sec. IV.8): the factor of an
+       * earlier iterate is kept while the iteration contracts fast and
+       * kappa and the set of flowing links are unchanged. */
+      if (refactor)
+        {
+          memcpy (m->g, m->dh, m->n_links * sizeof *m->g);
+          st = pls_factor (m, kappa, err);
+          if (st != PLS_OK)
+            {
+              m->fact_valid = 0;
+              return st;
+            }
+          m->fact_valid = 1;
+          m->fact_kappa = kappa;
+          slow = 0;
+        }
+      st = pls_linear_solve (m, err);
+      if (st != PLS_OK)
+        return st;
+      for (i = 0; i < m->nf; i++)
+        {
+          int n = m->col_node[i];
+          double s = fabs (m->dp[n]) / (tol->atol_p + tol->rtol * fabs (m->p[n]));
+
+          m->p[n] += m->dp[n];
+          worst = s > worst ? s : worst;
+        }
+      for (k = 0; k < m->n_links; k++)
+        {
+          double s;
+
+          if (m->g[k] == 0.0)
+            continue;
+          s = fabs (m->dq[k]) / (tol->atol_q + tol->rtol * fabs (m->q[k]));
+          m->q[k] += m->dq[k];
+          worst = s > worst ? s : worst;
+        }
+      if (!isfinite (worst))
+        return PLS_OK;   /* not converged: the caller cuts the step */
+      if (worst <= PLS_NEWTON_FRACTION)
+        {
+          *converged = 1;
+          return PLS_OK;
+        }
+      if (refactor && it >= 2 && worst > prev_fresh)
+        return PLS_OK;   /* diverging with a fresh Jacobian */
+      if (refactor)
+        prev_fresh = worst;
+      /* Contraction slower than 0.3 an iteration: a fresh Jacobian next. */
+      if (worst > 0.3 * prev)
+        slow = 1;
+      prev = worst;
+    }
+  return PLS_OK;
+}
+
+/* One TR-BDF2 step of length h from (m->p, m->q) at t.  On return
+ * *converged says whether both stages converged; *errnorm is the scaled
+ * local error (only when converged).  m->p, m->q hold the new state;
+ * m->p0, m->q0 the old one (restored by the caller on rejection). */
+static pls_status
+pls_step (pls__model *m, const pls__schedule *s, double t, double h, int *converged,
+          double *errnorm, pls_error *err)
+{
+  const double gam = PLS_GAMMA, kappa = 0.5 * gam * h;
+  const double a = 1.0 / (gam * (2.0 - gam)), b = (1.0 - gam) * (1.0 - gam) / (gam * (2.0 - gam));
+  const double cerr = (-3.0 * gam * gam + 4.0 * gam - 2.0) / (12.0 * (2.0 - gam));
+  size_t n = m->n_nodes, l = m->n_links, i, k;
+  double worst = 0.0, qscale = 0.0;
+  pls_status st;
+
+  /* Stage 1: trapezoidal rule to t + gamma h. */
+  for (i = 0; i < n; i++)
+    m->hist_v[i] = pls__node_volume (m, i, m->p0[i], NULL) + kappa * m->fv0[i];
+  for (k = 0; k < l; k++)
+    {
+      const pls__tlink *lk = &m->links[k];
+
+      m->hist_q[k] = lk->inertance > 0.0 ? m->q0[k] + kappa * m->fq0[k] / lk->inertance
+                                         : 0.0;
+    }
+  pls__schedule_apply (m, s, t + gam * h);
+  st = pls_stage (m, kappa, converged, err);
+  if (st != PLS_OK || !*converged)
+    return st;
+  memcpy (m->pg, m->p, n * sizeof *m->p);
+  memcpy (m->qg, m->q, l * sizeof *m->q);
+  st = pls_forces (m, m->pg, m->qg, m->fvg, m->fqg, err);
+  if (st != PLS_OK)
+    return st;
+
+  /* Stage 2: BDF2 through t, t + gamma h, t + h. */
+  for (i = 0; i < n; i++)
+    m->hist_v[i] = a * pls__node_volume (m, i, m->pg[i], NULL)
+                   - b * pls__node_volume (m, i, m->p0[i], NULL);
+  for (k = 0; k < l; k++)
+    m->hist_q[k] = a * m->qg[k] - b * m->q0[k];
+  /* Predictor: the line through the two known points. */
+  for (i = 0; i < n; i++)
+    if (!m->nodes[i].fixed)
+      m->p[i] = m->pg[i] + (m->pg[i] - m->p0[i]) * (1.0 - gam) / gam;
+  for (k = 0; k < l; k++)
+    m->q[k] = m->qg[k] + (m->qg[k] - m->q0[k]) * (1.0 - gam) / gam;
+  pls__schedule_apply (m, s, t + h);
+  st = pls_stage (m, kappa, converged, err);
+  if (st != PLS_OK || !*converged)
+    return st;
+  st = pls_forces (m, m->p, m->q, m->fv1, m->fq1, err);
+  if (st != PLS_OK)
+    return st;
+
+  /* Error estimate in m-space, filtered through the last stage matrix:
+   * solve with residuals -e/kappa (the factor holds C/kappa + B G B^T). */
+  for (i = 0; i < n; i++)
+    {
+      double e = 2.0 * cerr * h * (m->fv0[i] / gam - m->fvg[i] / (gam * (1.0 - gam))
+                                   + m->fv1[i] / (1.0 - gam));
+
+      m->rn[i] = m->nodes[i].fixed ? 0.0 : -e / kappa;
+    }
+  for (k = 0; k < l; k++)
+    {
+      double e = 2.0 * cerr * h * (m->fq0[k] / gam - m->fqg[k] / (gam * (1.0 - gam))
+                                   + m->fq1[k] / (1.0 - gam));
+
+      m->rl[k] = m->links[k].inertance > 0.0 && m->g[k] != 0.0 ? -e / kappa : 0.0;
+    }
+  st = pls_linear_solve (m, err);
+  if (st != PLS_OK)
+    return st;
+  for (i = 0; i < n; i++)
+    {
+      double sc;
+
+      if (m->nodes[i].fixed)
+        continue;
+      sc = m->tol.atol_p + m->tol.rtol * fmax (fabs (m->p0[i]), fabs (m->p[i]));
+      if (fabs (m->dp[i]) / sc > worst)
+        m->worst = (long) i;
+      worst = fmax (worst, fabs (m->dp[i]) / sc);
+    }
+  /* Flows are measured against the largest flow of the network as well as
+   * their own: an almost stagnant branch must not hold the step to
+   * resolving flows far below anything that matters elsewhere. */
+  for (k = 0; k < l; k++)
+    qscale = fmax (qscale, fmax (fabs (m->q0[k]), fabs (m->q[k])));
+  for (k = 0; k < l; k++)
+    {
+      double sc;
+
+      if (!(m->links[k].inertance > 0.0) || m->g[k] == 0.0)
+        continue;
+      sc = m->tol.atol_q + m->tol.rtol * qscale;
+      if (fabs (m->dq[k]) / sc > worst)
+        m->worst = -1 - (long) k;
+      worst = fmax (worst, fabs (m->dq[k]) / sc);
+    }
+  *errnorm = isfinite (worst) ? worst : INFINITY;
+  return PLS_OK;
+}
+
+static pls_status pls_algebraic_flow (const pls__model *m, size_t k, double dp, double *q,
+                                      pls_error *err);
+
+/* Flows of the algebraic links from their laws at the present pressures,
+ * so that a run starts on a consistent state (after a change of the air
+ * state, a dump valve that opens starts at its real flow, not at 0, which
+ * Newton would have to reach from far away on a quadratic law). */
+static pls_status
+pls_consistent_flows (pls__model *m, pls_error *err)
+{
+  size_t k;
+
+  for (k = 0; k < m->n_links; k++)
+    {
+      pls_status st;
+
+      if (m->links[k].inertance > 0.0)
+        continue;
+      if (!pls_link_on (m, k))
+        {
+          m->q[k] = 0.0;
+          continue;
+        }
+      st = pls_algebraic_flow (m, k, pls_delta_p (m, &m->links[k], m->p), &m->q[k], err);
+      if (st != PLS_OK)
+        return st;
+    }
+  return PLS_OK;
+}
+
+static const pls_allocator *
+pls_enter (pls__model *m)
+{
+  return pls__cholmod_enter (m->alloc);
+}
+
+/* Pump changeover (PHYSICS.md, pump): a reciprocating pump delivers
+ * nothing for changeover_time at each stroke end, i.e. after every half
+ * displacement of delivered volume.  The stroke end is a state event; it
+ * is taken at the end of the step in which the stroke's volume is reached
+ * (late by at most one step, the excess volume carried into the next
+ * stroke so the mean delivery is kept); the gap's end is a time event the
+ * steps land on.  Returns 1 if a pump stopped or restarted at t. */
+static int
+pls_changeover (pls__model *m, double t)
+{
+  size_t k;
+  int changed = 0;
+
+  if (!m->air_on)
+    return 0;
+  for (k = 0; k < m->n_links; k++)
+    {
+      const pls__tlink *l = &m->links[k];
+      const pls_element *e = &m->net->elements[l->elem];
+      double half;
+
+      if (l->kind != PLS__LINK_ELEMENT || e->kind != PLS_ELEMENT_PUMP
+          || !(e->u.pump.changeover_time > 0.0))
+        continue;
+      half = 0.5 * e->u.pump.displacement;
+      if (m->gap_end[k] > 0.0)
+        {
+          if (t >= m->gap_end[k] - 1e-12 * (1.0 + fabs (t)))
+            {
+              m->gap_end[k] = 0.0;
+              m->active[k] = 1;
+              changed = 1;
+            }
+        }
+      else if (m->stroke[k] >= half)
+        {
+          m->stroke[k] = fmod (m->stroke[k], half);
+          m->gap_end[k] = t + e->u.pump.changeover_time;
+          m->active[k] = 0;
+          m->q[k] = 0.0;
+          changed = 1;
+        }
+    }
+  return changed;
+}
+
+/* Earliest end of a changeover gap after t (INFINITY if none). */
+static double
+pls_gap_end (const pls__model *m, double t)
+{
+  double best = INFINITY;
+  size_t k;
+
+  for (k = 0; k < m->n_links; k++)
+    if (m->gap_end[k] > t && m->gap_end[k] < best)
+      best = m->gap_end[k];
+  return best;
+}
+
+pls_status
+pls__integrate (pls__model *m, const pls__schedule *s, double t0, double t1,
+                pls__step_fn fn, void *user_data, pls_error *err)
+{
+  const double gam = PLS_GAMMA;
+  const double w = 1.0 / (2.0 * (2.0 - gam)), w1 = (1.0 - gam) / (2.0 - gam);
+  const pls_allocator *prev = pls_enter (m);
+  size_t n = m->n_nodes, l = m->n_links, k;
+  double t = t0, h = m->h_next;
+  pls_status st;
+
+  m->stop = 0;
+  if (!(h > 0.0))
+    h = fmin (1e-4, 0.01 * (t1 - t0));
+  pls__schedule_apply (m, s, t);
+  st = pls_consistent_flows (m, err);
+  if (st == PLS_OK)
+    st = pls_forces (m, m->p, m->q, m->fv0, m->fq0, err);
+  if (st != PLS_OK)
+    goto out;
+  while (t < t1)
+    {
+      double te = fmin (fmin (pls__schedule_next_event (m, s, t), pls_gap_end (m, t)), t1);
+      double hs = h, errn = 0.0;
+      int conv = 0, landing = 0;
+
+      if (hs > m->tol.h_max)
+        hs = m->tol.h_max;
+      /* Land exactly on the next event; stretch by up to 20 % rather than
+       * leave a sliver. */
+      if (t + 1.2 * hs >= te)
+        {
+          hs = te - t;
+          landing = 1;
+        }
+      memcpy (m->p0, m->p, n * sizeof *m->p);
+      memcpy (m->q0, m->q, l * sizeof *m->q);
+      st = pls_step (m, s, t, hs, &conv, &errn, err);
+      if (st != PLS_OK)
+        goto out;
+      if (!conv || errn > 1.0)
+        {
+          /* Reject: restore, shrink. */
+          memcpy (m->p, m->p0, n * sizeof *m->p);
+          memcpy (m->q, m->q0, l * sizeof *m->q);
+          m->rejected++;
+          /* At most 0.8 hs, so the landing rule (which stretches by up to
+           * 20 %) cannot hand back the step just rejected. */
+          h = conv ? hs * fmin (0.8, fmax (0.2, 0.9 * pow (errn, -1.0 / 3.0))) : 0.25 * hs;
+          if (h < m->tol.h_min)
+            {
+              st = pls__error (err, PLS_ERR_NO_CONVERGENCE, -1, -1,
+                               "the time-domain integration needed a step below %g s "
+                               "at t = %g s", m->tol.h_min, t);
+              goto out;
+            }
+          continue;
+        }
+      m->steps++;
+      for (k = 0; k < l; k++)
+        {
+          double dv = hs * (w * (m->q0[k] + m->qg[k]) + w1 * m->q[k]);
+
+          m->qint[k] += dv;
+          m->stroke[k] += dv;
+        }
+      if (fn != NULL)
+        {
+          st = fn (user_data, m, t, t + gam * hs, landing ? te : t + hs);
+          if (st != PLS_OK)
+            goto out;
+        }
+      t = landing ? te : t + hs;
+      if (m->stop)
+        break;
+      if (pls_changeover (m, t))
+        {
+          /* A pump stopped or restarted: its flow jumps, so f_n is taken
+           * afresh from consistent algebraic flows. */
+          st = pls_consistent_flows (m, err);
+          if (st == PLS_OK)
+            st = pls_forces (m, m->p, m->q, m->fv0, m->fq0, err);
+          if (st != PLS_OK)
+            goto out;
+        }
+      else
+        {
+          /* f at the new point is the next step's f_n. */
+          memcpy (m->fv0, m->fv1, n * sizeof *m->fv0);
+          memcpy (m->fq0, m->fq1, l * sizeof *m->fq0);
+        }
+      {
+        double grow = errn > 0.0 ? fmin (4.0, fmax (0.2, 0.9 * pow (errn, -1.0 / 3.0))) : 4.0;
+
+        /* A landing step cut short by an event says little about the step
+         * the error allows: keep the controller's earlier figure then. */
+        if (landing && hs < h)
+          h = fmax (h, hs * grow);
+        else
+          h = hs * grow;
+      }
+    }
+  m->h_next = h;
+  st = PLS_OK;
+
+out:
+  pls__cholmod_leave (prev);
+  return st;
+}
+
+pls_status
+pls__settle (pls__model *m, const pls__schedule *s, double t, pls_error *err)
+{
+  const pls_allocator *prev = pls_enter (m);
+  size_t n = m->n_nodes, l = m->n_links, i, k;
+  double h = 1e-4, pscale = 1.0;
+  pls_status st = PLS_OK;
+  int tries, quiet = 0;
+
+  pls__schedule_apply (m, s, t);
+  for (i = 0; i < n; i++)
+    pscale = fmax (pscale, fabs (m->p[i]));
+  for (tries = 0; tries < 200 && quiet < 2; tries++)
+    {
+      double change = 0.0;
+      int conv = 0;
+
+      /* Implicit Euler: V(p) - V(p_n) = h inflow, I (q - q_n) / h = dP - h(q). */
+      memcpy (m->p0, m->p, n * sizeof *m->p);
+      memcpy (m->q0, m->q, l * sizeof *m->q);
+      for (i = 0; i < n; i++)
+        m->hist_v[i] = pls__node_volume (m, i, m->p0[i], NULL);
+      memcpy (m->hist_q, m->q0, l * sizeof *m->q0);
+      st = pls_stage (m, h, &conv, err);
+      if (st != PLS_OK)
+        goto out;
+      if (!conv)
+        {
+          memcpy (m->p, m->p0, n * sizeof *m->p);
+          memcpy (m->q, m->q0, l * sizeof *m->q);
+          h *= 0.1;
+          if (h < 1e-12)
+            {
+              st = pls__error (err, PLS_ERR_NO_CONVERGENCE, -1, -1,
+                               "the starting state of the time-domain model "
+                               "could not be found");
+              goto out;
+            }
+          continue;
+        }
+      for (i = 0; i < n; i++)
+        {
+          change = fmax (change, fabs (m->p[i] - m->p0[i]));
+          pscale = fmax (pscale, fabs (m->p[i]));
+        }
+      quiet = (h >= 1e5 && change <= 1e-10 * pscale) ? quiet + 1 : 0;
+      h = fmin (h * 10.0, 1e8);
+    }
+  for (k = 0; k < l; k++)
+    m->qint[k] = 0.0;
+
+out:
+  m->h_next = 0.0;
+  pls__cholmod_leave (prev);
+  return st;
+}
+
+/* ---- the ODE form, for the tests' independent integrator ---------------- */
+
+size_t
+pls__ode_size (const pls__model *m)
+{
+  size_t k, n = m->nf;
+
+  for (k = 0; k < m->n_links; k++)
+    if (m->links[k].inertance > 0.0)
+      n++;
+  return n;
+}
+
+void
+pls__ode_pack (const pls__model *m, double *y)
+{
+  size_t k, j, n = 0;
+
+  for (j = 0; j < m->nf; j++)
+    y[n++] = m->p[m->col_node[j]];
+  for (k = 0; k < m->n_links; k++)
+    if (m->links[k].inertance > 0.0)
+      y[n++] = m->q[k];
+}
+
+void
+pls__ode_unpack (pls__model *m, const double *y)
+{
+  size_t k, j, n = 0;
+
+  for (j = 0; j < m->nf; j++)
+    m->p[m->col_node[j]] = y[n++];
+  for (k = 0; k < m->n_links; k++)
+    if (m->links[k].inertance > 0.0)
+      m->q[k] = y[n++];
+}
+
+/* Flow of an algebraic link at a pressure difference dp: the root of
+ * h(q) = dp by Newton's method safeguarded with bisection (h is strictly
+ * increasing, so the root is unique). */
+static pls_status
+pls_algebraic_flow (const pls__model *m, size_t k, double dp, double *q, pls_error *err)
+{
+  double lo, hi, x = *q, step = fmax (1e-9, fabs (x));
+  pls_drop d;
+  int it;
+
+  pls_link_law (m, k, x, &d);
+  if (!isfinite (d.h))
+    return pls_law_error (m, k, x, &d, err);
+  /* Bracket. */
+  lo = hi = x;
+  if (d.h > dp)
+    for (it = 0; it < 200; it++)
+      {
+        lo -= step;
+        step *= 2.0;
+        pls_link_law (m, k, lo, &d);
+        if (d.h <= dp)
+          break;
+      }
+  else
+    for (it = 0; it < 200; it++)
+      {
+        hi += step;
+        step *= 2.0;
+        pls_link_law (m, k, hi, &d);
+        if (d.h >= dp)
+          break;
+      }
+  for (it = 0; it < 200; it++)
+    {
+      double nx;
+
+      pls_link_law (m, k, x, &d);
+      if (d.h > dp)
+        hi = x;
+      else
+        lo = x;
+      nx = x - (d.h - dp) / d.dh_dq;
+      if (!(nx > lo && nx < hi))
+        nx = 0.5 * (lo + hi);
+      if (fabs (nx - x) <= 1e-15 * fmax (fabs (nx), 1e-20) || hi - lo <= 1e-15 * fabs (hi))
+        {
+          x = nx;
+          break;
+        }
+      x = nx;
+    }
+  *q = x;
+  return PLS_OK;
+}
+
+pls_status
+pls__ode_rhs (pls__model *m, double t, const pls__schedule *s, const double *y,
+              double *ydot)
+{
+  size_t k, j, n = 0;
+  pls_status st;
+
+  pls__ode_unpack (m, y);
+  pls__schedule_apply (m, s, t);
+  for (k = 0; k < m->n_links; k++)
+    {
+      if (!pls_link_on (m, k))
+        {
+          m->q[k] = 0.0;
+          continue;
+        }
+      if (m->links[k].inertance > 0.0)
+        continue;
+      st = pls_algebraic_flow (m, k, pls_delta_p (m, &m->links[k], m->p), &m->q[k], NULL);
+      if (st != PLS_OK)
+        return st;
+    }
+  st = pls_forces (m, m->p, m->q, m->fv1, m->fq1, NULL);
+  if (st != PLS_OK)
+    return st;
+  for (j = 0; j < m->nf; j++)
+    {
+      int i = m->col_node[j];
+      double slope;
+
+      pls__node_volume (m, (size_t) i, m->p[i], &slope);
+      ydot[n++] = m->fv1[i] / slope;
+    }
+  for (k = 0; k < m->n_links; k++)
+    if (m->links[k].inertance > 0.0)
+      ydot[n++] = m->fq1[k] / m->links[k].inertance;
+  return PLS_OK;
+}

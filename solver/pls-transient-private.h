@@ -1,0 +1,222 @@
+/* SPDX-License-Identifier: GPL-3.0-or-later
+ *
+ * pls-transient-private.h: what the time-domain files share (lumped model,
+ * integrator, firing cycle, shutdown), and the entry points the tests use
+ * to drive the integrator from a state of their own.
+ *
+ * The lumped model: every network node, the interior nodes of segmented
+ * lines and one gas chamber per accumulator are model nodes with a
+ * (possibly pressure-dependent) stored volume V(p); every line segment,
+ * accumulator neck and every flow-carrying element is a link with an
+ * inertance I (0 for the elements without one) and the element's own law
+ * h(q).  The ODE is
+ *   dV_i/dt = sum of the flows into node i          (free nodes)
+ *   I_k dq_k/dt = P_a - P_b - h_k(q_k)               (inertial links)
+ *   0 = P_a - P_b - h_k(q_k)                         (algebraic links)
+ * with P = p + rho g z.  The algebraic links' flows are explicit functions
+ * of the pressures (h is strictly increasing), so it is an ODE in the node
+ * pressures and the inertial flows.
+ */
+#pragma once
+
+#include <cholmod.h>
+
+#include "pls-network-private.h"
+
+typedef enum
+{
+  PLS__LINK_ELEMENT = 0,  /* a two-port element by its law, no inertance     */
+  PLS__LINK_SEGMENT,      /* one pi-segment of a line: law x fraction, I     */
+  PLS__LINK_NECK,         /* accumulator neck: pipe law of the neck, I       */
+  PLS__LINK_NOZZLE,       /* applicator to atmosphere, valve opening s(t)    */
+} pls__link_kind;
+
+typedef struct
+{
+  pls__link_kind kind;
+  int elem;           /* network element                                    */
+  int a, b;           /* model nodes; b = -1: atmosphere at a's elevation   */
+  double inertance;   /* Pa s^2/m^3; 0 for algebraic links                   */
+  double scale;       /* segment: fraction of the line's length, else 1     */
+  int app;            /* applicator index (nozzles), else -1                */
+  pls_line_params neck; /* the neck as a rigid pipe (NECK links)            */
+} pls__tlink;
+
+typedef struct
+{
+  double compliance;  /* linear part dV/dp, m^3/Pa (fluid + wall)           */
+  double elevation;   /* m                                                  */
+  int fixed;          /* 1: pressure given                                  */
+  double fixed_pressure; /* Pa gauge                                        */
+  int acc;            /* accumulator element whose gas chamber this is, -1  */
+  int col;            /* matrix column, -1 for a fixed node                 */
+} pls__tnode;
+
+/* Valve opening of the applicators as a function of time. */
+typedef enum
+{
+  PLS__SCHED_CLOSED = 0,  /* every applicator shut                          */
+  PLS__SCHED_OPEN,        /* every applicator held open                     */
+  PLS__SCHED_FIRING,      /* the periodic firing schedule                   */
+  PLS__SCHED_CLOSE_AT,    /* open until t_close, then the closing ramp      */
+} pls__sched_kind;
+
+typedef struct
+{
+  pls__sched_kind kind;
+  double period;      /* s (FIRING)                                         */
+  double on_time;     /* s: start of opening to start of closing            */
+  double open_ramp;   /* s                                                  */
+  double close_ramp;  /* s                                                  */
+  double t_close;     /* s (CLOSE_AT)                                       */
+  const double *delay;/* n_app delays (s), NULL for none                    */
+} pls__schedule;
+
+typedef struct
+{
+  double rtol;        /* relative local error per step                      */
+  double atol_p;      /* Pa                                                 */
+  double atol_q;      /* m^3/s                                              */
+  double h_max;       /* s, largest step                                    */
+  double h_min;       /* s, smallest step before giving up                  */
+} pls__tolerances;
+
+typedef struct pls__model pls__model;
+
+/* Called after every accepted step with the model's state at the step's
+ * start (m->p0, m->q0), its inner stage (m->pg, m->qg) and its end (m->p,
+ * m->q); t0 and t1 bound the step, tg = t0 + gamma (t1 - t0). */
+typedef pls_status (*pls__step_fn) (void *user_data, pls__model *m, double t0, double tg,
+                                    double t1);
+
+struct pls__model
+{
+  const pls_network *net;
+  const pls_allocator *alloc;
+  double rho_g;            /* rho g, Pa/m                                   */
+  size_t n_net_nodes;      /* model nodes 0..n_net_nodes-1 are the network's */
+  size_t n_nodes;
+  pls__tnode *nodes;       /* n_nodes                                       */
+  size_t n_links;
+  pls__tlink *links;       /* n_links                                       */
+  int *segments;           /* n_elements: pi-segments of each line, else 0  */
+  int *chamber;            /* n_elements: model node of an accumulator's gas
+                              chamber, else -1                              */
+  int *elem_link;          /* n_elements: first link of each element, -1    */
+  size_t n_app;
+  int *app_elem;           /* n_app: element of each applicator             */
+  int *app_link;           /* n_app: its link                               */
+  size_t nf;               /* free model nodes = matrix columns             */
+  int *col_node;           /* nf                                            */
+  int air_on;              /* 1: pumps run, dump valves shut                */
+  double air_pressure;     /* Pa gauge                                      */
+  unsigned char *active;   /* n_links: link carries flow in this air state  */
+  double *open;            /* n_app: valve opening s in [0, 1] now          */
+
+  /* State: pressures of every model node (fixed ones hold theirs) and
+   * flows of every link; the step's start and inner stage. */
+  double *p, *q, *p0, *q0, *pg, *qg;
+  /* Work arrays */
+  double *hist_v, *hist_q;       /* n_nodes, n_links: stage history        */
+  double *fv0, *fq0, *fvg, *fqg, *fv1, *fq1; /* f at the three points       */
+  double *g, *rl, *rn, *dp, *dq, *ev, *eq; /* n_links / nf / n_links ...   */
+  double *h, *dh;                /* n_links: law at q                      */
+  double *qint;                  /* n_links: integral of q over the run    */
+  double *stroke;                /* n_links: pumps' volume in this stroke  */
+  double *gap_end;               /* n_links: end of a pump's changeover gap
+                                    (s), 0 when the pump is running       */
+
+  /* Nodal matrix: pattern from pls__pattern, values each Newton step. */
+  pls_work w;                    /* pattern only (links, ap, ai, nnz)       */
+  cholmod_common c;
+  int c_started;
+  cholmod_sparse *A;
+  cholmod_factor *L;
+  cholmod_dense *B, *X, *Y, *E;
+  const pls_allocator *c_prev;
+
+  /* Integrator */
+  pls__tolerances tol;
+  double h_next;                 /* suggested next step, s                 */
+
+  int stop;                      /* set by a step callback: end the run    */
+  int fact_valid;                /* the factor in L matches g, ev, kappa   */
+  double fact_kappa;             /* kappa of that factor                   */
+
+  /* Statistics */
+  long steps, rejected, newton_iterations, factorisations;
+  long worst;                    /* component that set the last step's error:
+                                    node i >= 0, link -1 - k (diagnostics) */
+};
+
+/* Defaults of the model and integration settings are in pls-lumped.c. */
+typedef struct
+{
+  double t_event;          /* fastest event (valve ramp), s, > 0            */
+  double per_wavelength;   /* segments per shortest wavelength              */
+  int min_segments, max_segments;
+  int air_on;
+  double air_pressure;
+} pls__model_options;
+
+/* Wave speed (m/s) and compliance per length (m^3/(Pa m)) of a line:
+ * Korteweg for a rigid pipe, 1/K_eff = 1/K + D/(E e); a hose by its
+ * volumetric expansion figure, C' = A/K + expansion. */
+void pls__line_wave (const pls_fluid_params *f, const pls_line_params *l, double *speed,
+                     double *compliance_per_length);
+
+/* Accumulator fluid volume dVf/dp at a gauge pressure (m^3/Pa; 0 at or
+ * below precharge: the bladder closes the port). */
+double pls__accumulator_slope (const pls_accumulator_params *p, double pressure);
+
+pls_status pls__model_new (const pls_network *net, const pls__model_options *o,
+                           pls__model **out, pls_error *err);
+void pls__model_free (pls__model *m);
+/* Changes the air state (pumps and dump valves) of the model. */
+void pls__model_set_air (pls__model *m, int air_on, double air_pressure);
+/* Stored volume of model node i at pressure p (m^3, from p = 0) and its
+ * slope dV/dp. */
+double pls__node_volume (const pls__model *m, size_t i, double p, double *slope);
+/* Sets the valve openings for time t from a schedule. */
+void pls__schedule_apply (pls__model *m, const pls__schedule *s, double t);
+/* Earliest schedule event strictly after t (INFINITY if none). */
+double pls__schedule_next_event (const pls__model *m, const pls__schedule *s, double t);
+
+/* Integrates from t0 to t1 (steps land on t1 and every schedule event),
+ * calling fn (may be NULL) after each accepted step. */
+pls_status pls__integrate (pls__model *m, const pls__schedule *s, double t0, double t1,
+                           pls__step_fn fn, void *user_data, pls_error *err);
+/* Brings the model to the steady state of its air state and the schedule
+ * at time t (valves frozen) by implicit Euler steps of growing length,
+ * starting from the state in m->p, m->q. */
+pls_status pls__settle (pls__model *m, const pls__schedule *s, double t, pls_error *err);
+/* Right side of the ODE at state (p, q) in the free-node pressures and the
+ * inertial flows; the algebraic flows are solved from their laws (into
+ * m->q).  ydot: dp/dt of each free model node (C(p)^-1 times the inflow),
+ * then dq/dt of each inertial link, in model order.  For the tests' check
+ * against an independent integrator. */
+size_t pls__ode_size (const pls__model *m);
+void pls__ode_pack (const pls__model *m, double *y);
+void pls__ode_unpack (pls__model *m, const double *y);
+pls_status pls__ode_rhs (pls__model *m, double t, const pls__schedule *s, const double *y,
+                         double *ydot);
+
+/* Fills the model state from a steady result (node pressures, element
+ * flows; interior line nodes interpolated, chambers at their node). */
+void pls__model_from_steady (pls__model *m, const pls_steady_result *r);
+
+/* ---- shared by the cycle and the shutdown (pls-cycle.c) ----------------- */
+
+/* Checks the options against the network (cycle = 1: the firing schedule
+ * too); err names the option or part at fault. */
+pls_status pls__transient_check (const pls_network *net, const pls_transient_options *o,
+                                 int cycle, pls_error *err);
+/* Builds the model for the options and brings it to the idle state (air
+ * on, every applicator shut): seeded by the steady solve where it has a
+ * result, then settled on the lumped model itself. */
+pls_status pls__transient_start (const pls_network *net, const pls_transient_options *o,
+                                 pls__model **out, pls_error *err);
+/* Total volume stored in the free model nodes (m^3). */
+double pls__stored_volume (const pls__model *m);
+/* Copies the model's work counters into a stats record (adds to it). */
+void pls__stats_add (const pls__model *m, pls_transient_stats *s);
