@@ -6,7 +6,7 @@
 
 #include "pls-laws.h"
 
-#include <check.h>
+#include "pl-check.h"
 #include <gsl/gsl_errno.h>
 #include <gsl/gsl_integration.h>
 #include <math.h>
@@ -194,11 +194,5 @@ accumulator_suite (void)
 int
 main (void)
 {
-  SRunner *sr = srunner_create (accumulator_suite ());
-  int failed;
-
-  srunner_run_all (sr, CK_NORMAL);
-  failed = srunner_ntests_failed (sr);
-  srunner_free (sr);
-  return failed == 0 ? EXIT_SUCCESS : EXIT_FAILURE;
+  return pl_check_run (accumulator_suite ());
 }

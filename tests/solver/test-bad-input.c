@@ -7,7 +7,7 @@
 
 #include "config.h"
 
-#include <check.h>
+#include "pl-check.h"
 #include <math.h>
 #include <stdlib.h>
 #include <string.h>
@@ -405,11 +405,5 @@ bad_input_suite (void)
 int
 main (void)
 {
-  SRunner *sr = srunner_create (bad_input_suite ());
-  int failed;
-
-  srunner_run_all (sr, CK_NORMAL);
-  failed = srunner_ntests_failed (sr);
-  srunner_free (sr);
-  return failed == 0 ? EXIT_SUCCESS : EXIT_FAILURE;
+  return pl_check_run (bad_input_suite ());
 }

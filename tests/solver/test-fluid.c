@@ -6,7 +6,7 @@
 
 #include "pls-laws.h"
 
-#include <check.h>
+#include "pl-check.h"
 #include <math.h>
 #include <stdlib.h>
 #include <string.h>
@@ -291,11 +291,5 @@ fluid_suite (void)
 int
 main (void)
 {
-  SRunner *sr = srunner_create (fluid_suite ());
-  int failed;
-
-  srunner_run_all (sr, CK_NORMAL);
-  failed = srunner_ntests_failed (sr);
-  srunner_free (sr);
-  return failed == 0 ? EXIT_SUCCESS : EXIT_FAILURE;
+  return pl_check_run (fluid_suite ());
 }

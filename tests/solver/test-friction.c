@@ -7,47 +7,10 @@
 
 #include "pls-laws.h"
 
-#include <check.h>
+#include "law-fixtures.h"
 #include <math.h>
 #include <stdlib.h>
 #include <string.h>
-
-static pls_line_params
-hose (double length, double bore, double roughness)
-{
-  pls_line_params l;
-
-  memset (&l, 0, sizeof l);
-  l.kind = PLS_LINE_HOSE;
-  l.length = length;
-  l.bore = bore;
-  l.roughness = roughness;
-  return l;
-}
-
-static pls_fluid_params
-newtonian (double mu, double rho)
-{
-  pls_fluid_params f;
-
-  pls_fluid_params_init (&f);
-  f.mu = mu;
-  f.density = rho;
-  return f;
-}
-
-static pls_fluid_params
-power_law (double k, double n, double rho)
-{
-  pls_fluid_params f;
-
-  pls_fluid_params_init (&f);
-  f.law = PLS_VISCOSITY_POWER_LAW;
-  f.consistency = k;
-  f.flow_index = n;
-  f.density = rho;
-  return f;
-}
 
 /* ---- turbulent friction --------------------------------------------------- */
 
@@ -125,7 +88,7 @@ START_TEST (test_ryan_johnson)
   /* PHYSICS.md: n 1 -> 2100, n 0.6 -> 2337.1 (Ryan & Johnson 1959).  The
    * formula gives 2099.25 at n = 1: the published 2100 is rounded, so 1. */
   double lo, hi;
-  pls_fluid_params p = power_law (1.0, 0.6, 1000.0), g = newtonian (1.0, 1000.0);
+  pls_fluid_params p = fixture_power_law (1.0, 0.6, 1000.0), g = fixture_newtonian (1.0, 1000.0);
 
   ck_assert_double_eq_tol (pls_ryan_johnson_reynolds (1.0), 2100.0, 1.0);
   ck_assert_double_eq_tol (pls_ryan_johnson_reynolds (0.6), 2337.1, 0.05);
@@ -142,8 +105,8 @@ START_TEST (test_turbulent_darcy_weisbach)
 {
   /* Water in a 25 mm pipe at Re 1e5: h = f (L/D) rho V^2 / 2 with the
    * Colebrook f (Darcy-Weisbach); regime and state fields. */
-  pls_fluid_params w = newtonian (1e-3, 998.0);
-  pls_line_params l = hose (7.0, 0.025, 2.5e-6);
+  pls_fluid_params w = fixture_newtonian (1e-3, 998.0);
+  pls_line_params l = fixture_hose (7.0, 0.025, 2.5e-6);
   double v = 1e5 * 1e-3 / (998.0 * 0.025), a = 0.25 * PLS_PI * 0.025 * 0.025;
   double f = pls_colebrook_darcy (1e5, 1e-4);
   pls_drop d;
@@ -180,11 +143,5 @@ friction_suite (void)
 int
 main (void)
 {
-  SRunner *sr = srunner_create (friction_suite ());
-  int failed;
-
-  srunner_run_all (sr, CK_NORMAL);
-  failed = srunner_ntests_failed (sr);
-  srunner_free (sr);
-  return failed == 0 ? EXIT_SUCCESS : EXIT_FAILURE;
+  return pl_check_run (friction_suite ());
 }

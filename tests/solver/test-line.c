@@ -6,7 +6,7 @@
 
 #include "pls-laws.h"
 
-#include <check.h>
+#include "law-fixtures.h"
 #include <gsl/gsl_errno.h>
 #include <gsl/gsl_integration.h>
 #include <gsl/gsl_roots.h>
@@ -15,58 +15,6 @@
 #include <string.h>
 
 #define LPM (1e-3 / 60.0)   /* 1 L/min in m^3/s */
-
-static pls_line_params
-hose (double length, double bore, double roughness)
-{
-  pls_line_params l;
-
-  memset (&l, 0, sizeof l);
-  l.kind = PLS_LINE_HOSE;
-  l.length = length;
-  l.bore = bore;
-  l.roughness = roughness;
-  return l;
-}
-
-static pls_fluid_params
-newtonian (double mu, double rho)
-{
-  pls_fluid_params f;
-
-  pls_fluid_params_init (&f);
-  f.mu = mu;
-  f.density = rho;
-  return f;
-}
-
-static pls_fluid_params
-power_law (double k, double n, double rho)
-{
-  pls_fluid_params f;
-
-  pls_fluid_params_init (&f);
-  f.law = PLS_VISCOSITY_POWER_LAW;
-  f.consistency = k;
-  f.flow_index = n;
-  f.density = rho;
-  return f;
-}
-
-static pls_fluid_params
-carreau (double mu0, double muinf, double lambda, double n, double rho)
-{
-  pls_fluid_params f;
-
-  pls_fluid_params_init (&f);
-  f.law = PLS_VISCOSITY_CARREAU;
-  f.mu_zero = mu0;
-  f.mu_infinity = muinf;
-  f.lambda = lambda;
-  f.flow_index = n;
-  f.density = rho;
-  return f;
-}
 
 static double
 drop (const pls_fluid_params *f, const pls_line_params *l, double q)
@@ -84,8 +32,8 @@ START_TEST (test_hagen_poiseuille_check_value)
   /* PHYSICS.md check value, derived from dp = 128 mu L Q / (pi D^4): mu 1 Pa s,
    * D 6.35 mm, L 10 m, Q 1 L/min -> 4.1765 MPa.  Tolerance: half a unit of
    * the value's last printed digit (50 Pa). */
-  pls_fluid_params f = newtonian (1.0, 1100.0);
-  pls_line_params l = hose (10.0, 6.35e-3, 0.0);
+  pls_fluid_params f = fixture_newtonian (1.0, 1100.0);
+  pls_line_params l = fixture_hose (10.0, 6.35e-3, 0.0);
   pls_drop d;
   pls_line_state st;
 
@@ -110,8 +58,8 @@ START_TEST (test_power_law_check_value)
    * gives 1.813448 MPa, which rounds to 1.8134: the table's last digit is
    * off by one.  Tolerance 100 Pa covers the table's figure; the closed form
    * itself is held to 1e-10 in test_power_law_closed_form. */
-  pls_fluid_params f = power_law (10.0, 0.5, 1100.0);
-  pls_line_params l = hose (10.0, 6.35e-3, 0.0);
+  pls_fluid_params f = fixture_power_law (10.0, 0.5, 1100.0);
+  pls_line_params l = fixture_hose (10.0, 6.35e-3, 0.0);
 
   ck_assert_double_eq_tol (drop (&f, &l, LPM), 1.8135e6, 100.0);
   ck_assert_double_eq_tol (drop (&f, &l, LPM), 1.813448e6, 1.0);
@@ -138,8 +86,8 @@ static const struct { double n, q; } pl_cases[] = {
 START_TEST (test_power_law_closed_form)
 {
   double n = pl_cases[_i].n, q = pl_cases[_i].q * LPM, r = 0.5 * 6.35e-3, k = 10.0;
-  pls_fluid_params f = power_law (k, n, 1100.0);
-  pls_line_params l = hose (10.0, 6.35e-3, 0.0);
+  pls_fluid_params f = fixture_power_law (k, n, 1100.0);
+  pls_line_params l = fixture_hose (10.0, 6.35e-3, 0.0);
   double expect = 2.0 * 10.0 * k / r * pow (q * (3.0 * n + 1.0) / (PLS_PI * n * r * r * r), n);
   double v = q / (PLS_PI * r * r);
   pls_drop d;
@@ -166,8 +114,8 @@ END_TEST
 START_TEST (test_power_law_n1_is_hagen_poiseuille)
 {
   /* n = 1, K = mu: the power law is the Newtonian law (derived). */
-  pls_fluid_params f = power_law (2.5, 1.0, 900.0), g = newtonian (2.5, 900.0);
-  pls_line_params l = hose (3.0, 4e-3, 0.0);
+  pls_fluid_params f = fixture_power_law (2.5, 1.0, 900.0), g = fixture_newtonian (2.5, 900.0);
+  pls_line_params l = fixture_hose (3.0, 4e-3, 0.0);
 
   ck_assert_double_eq_tol (drop (&f, &l, 0.7 * LPM) / drop (&g, &l, 0.7 * LPM), 1.0, 1e-9);
 }
@@ -175,17 +123,17 @@ END_TEST
 
 START_TEST (test_carreau_limits)
 {
-  pls_line_params l = hose (10.0, 6.35e-3, 0.0);
+  pls_line_params l = fixture_hose (10.0, 6.35e-3, 0.0);
   /* lambda = 0: Carreau is Newtonian with mu_0 (definition of the law). */
-  pls_fluid_params c0 = carreau (3.0, 0.1, 0.0, 0.4, 1100.0), g = newtonian (3.0, 1100.0);
+  pls_fluid_params c0 = fixture_carreau (3.0, 0.1, 0.0, 0.4, 1100.0), g = fixture_newtonian (3.0, 1100.0);
   /* High shear: with mu_inf = 0 and lambda gamma >> 1 Carreau tends to the
    * power law K = mu_0 lambda^(n-1) (Bird, Armstrong & Hassager, sec. 4.4).
    * Here lambda gamma_w ~ 1e6; the Newtonian core near the axis carries
    * ~1e-12 of the flow, so 1e-7 is ample. */
-  pls_fluid_params c1 = carreau (100.0, 0.0, 1e3, 0.5, 1100.0);
-  pls_fluid_params p1 = power_law (100.0 * pow (1e3, -0.5), 0.5, 1100.0);
+  pls_fluid_params c1 = fixture_carreau (100.0, 0.0, 1e3, 0.5, 1100.0);
+  pls_fluid_params p1 = fixture_power_law (100.0 * pow (1e3, -0.5), 0.5, 1100.0);
   /* Carreau with n = 1 is Newtonian whatever lambda is. */
-  pls_fluid_params c2 = carreau (3.0, 0.0, 5.0, 1.0, 1100.0);
+  pls_fluid_params c2 = fixture_carreau (3.0, 0.0, 5.0, 1.0, 1100.0);
 
   ck_assert_double_eq_tol (drop (&c0, &l, LPM) / drop (&g, &l, LPM), 1.0, 1e-14);
   ck_assert_double_eq_tol (drop (&c1, &l, LPM) / drop (&p1, &l, LPM), 1.0, 1e-7);
@@ -264,8 +212,8 @@ START_TEST (test_carreau_against_gsl)
   double r = 0.5 * 6.35e-3, len = 10.0;
   gsl_carreau c = { carreau_cases[_i].mu0, carreau_cases[_i].muinf,
                     carreau_cases[_i].lambda, carreau_cases[_i].n, 0.0 };
-  pls_fluid_params f = carreau (c.mu0, c.muinf, c.lambda, c.n, 1100.0);
-  pls_line_params l = hose (len, 2.0 * r, 0.0);
+  pls_fluid_params f = fixture_carreau (c.mu0, c.muinf, c.lambda, c.n, 1100.0);
+  pls_line_params l = fixture_hose (len, 2.0 * r, 0.0);
   double q = carreau_cases[_i].q * LPM, tau_w, result, err, dq;
   gsl_integration_workspace *ws = gsl_integration_workspace_alloc (1000);
   gsl_function fn = { gsl_flow_integrand, &c };
@@ -295,8 +243,8 @@ START_TEST (test_bore_doubling)
   /* Doubling the bore cuts the laminar drop to 1/16 (common practice, no
    * source; it is D^-4 in Hagen-Poiseuille).  For a power law the factor is
    * 2^-(3n+1) (from the closed form above). */
-  pls_fluid_params g = newtonian (1.0, 1100.0), p = power_law (10.0, 0.5, 1100.0);
-  pls_line_params a = hose (10.0, 6.35e-3, 0.0), b = hose (10.0, 12.7e-3, 0.0);
+  pls_fluid_params g = fixture_newtonian (1.0, 1100.0), p = fixture_power_law (10.0, 0.5, 1100.0);
+  pls_line_params a = fixture_hose (10.0, 6.35e-3, 0.0), b = fixture_hose (10.0, 12.7e-3, 0.0);
 
   ck_assert_double_eq_tol (drop (&g, &b, LPM) / drop (&g, &a, LPM), 1.0 / 16.0, 1e-14);
   ck_assert_double_eq_tol (drop (&p, &b, LPM) / drop (&p, &a, LPM), pow (2.0, -2.5), 1e-9);
@@ -310,18 +258,18 @@ sweep_fluid (int k)
 {
   switch (k)
     {
-    case 0: return newtonian (1e-3, 998.0);               /* water            */
-    case 1: return newtonian (2.0, 1100.0);               /* adhesive         */
-    case 2: return power_law (0.05, 0.6, 1000.0);
-    case 3: return power_law (0.02, 0.3, 1000.0);
-    case 4: return power_law (0.001, 1.0, 1000.0);
-    case 5: return power_law (0.0005, 1.5, 1000.0);
-    case 6: return carreau (0.1, 0.0, 0.05, 0.5, 1000.0);
-    case 7: return carreau (0.02, 0.002, 1.0, 0.4, 1000.0);
-    case 8: return carreau (0.002, 0.0, 0.01, 1.3, 1000.0);
+    case 0: return fixture_newtonian (1e-3, 998.0);               /* water            */
+    case 1: return fixture_newtonian (2.0, 1100.0);               /* adhesive         */
+    case 2: return fixture_power_law (0.05, 0.6, 1000.0);
+    case 3: return fixture_power_law (0.02, 0.3, 1000.0);
+    case 4: return fixture_power_law (0.001, 1.0, 1000.0);
+    case 5: return fixture_power_law (0.0005, 1.5, 1000.0);
+    case 6: return fixture_carreau (0.1, 0.0, 0.05, 0.5, 1000.0);
+    case 7: return fixture_carreau (0.02, 0.002, 1.0, 0.4, 1000.0);
+    case 8: return fixture_carreau (0.002, 0.0, 0.01, 1.3, 1000.0);
     /* Dodge-Metzner falls below laminar friction near the Ryan-Johnson
      * onset for small n: the blend's floor keeps h monotone. */
-    default: return power_law (0.01, 0.15, 1000.0);
+    default: return fixture_power_law (0.01, 0.15, 1000.0);
     }
 }
 
@@ -334,7 +282,7 @@ START_TEST (test_sweep_contract)
    * relative where h is only C1 (the ends of the blend band); 1e-5 is the
    * tolerance.  Continuity of dh/dq is asserted at the band edges too. */
   pls_fluid_params f = sweep_fluid (_i / 2);
-  pls_line_params l = hose (5.0, 0.01, (_i % 2) ? 5e-5 : 0.0);
+  pls_line_params l = fixture_hose (5.0, 0.01, (_i % 2) ? 5e-5 : 0.0);
   double q, prev = 0.0, lo, hi, a = 0.25 * PLS_PI * 0.01 * 0.01;
   int saw_turbulent = 0, saw_laminar = 0;
 
@@ -396,7 +344,7 @@ START_TEST (test_zero_flow)
   /* q = 0: no drop, the slope of the zero-shear (plateau) viscosity, i.e.
    * Hagen-Poiseuille with mu_0 (power law: K gc^(n-1)). */
   pls_fluid_params f = sweep_fluid (_i);
-  pls_line_params l = hose (2.0, 5e-3, 0.0);
+  pls_line_params l = fixture_hose (2.0, 5e-3, 0.0);
   double mu0 = pls_fluid_zero_shear_viscosity (&f);
   pls_drop d;
   pls_line_state st;
@@ -438,7 +386,7 @@ static const struct
 
 START_TEST (test_line_validator)
 {
-  pls_line_params l = hose (10.0, 6.35e-3, 1e-6);
+  pls_line_params l = fixture_hose (10.0, 6.35e-3, 1e-6);
   char why[PLS_MESSAGE_MAX];
 
   ck_assert_int_eq (pls_line_params_check (&l, why, sizeof why), PLS_OK);
@@ -451,7 +399,7 @@ END_TEST
 
 START_TEST (test_line_validator_kind)
 {
-  pls_line_params l = hose (10.0, 6.35e-3, 0.0);
+  pls_line_params l = fixture_hose (10.0, 6.35e-3, 0.0);
   char why[PLS_MESSAGE_MAX];
 
   l.kind = (pls_line_kind) 7;
@@ -490,11 +438,5 @@ line_suite (void)
 int
 main (void)
 {
-  SRunner *sr = srunner_create (line_suite ());
-  int failed;
-
-  srunner_run_all (sr, CK_NORMAL);
-  failed = srunner_ntests_failed (sr);
-  srunner_free (sr);
-  return failed == 0 ? EXIT_SUCCESS : EXIT_FAILURE;
+  return pl_check_run (line_suite ());
 }

@@ -7,7 +7,7 @@
 
 #include "pls-laws.h"
 
-#include <check.h>
+#include "law-fixtures.h"
 #include <math.h>
 #include <stdlib.h>
 #include <string.h>
@@ -156,33 +156,9 @@ START_TEST (test_fixed_cd_orifice_equation)
 END_TEST
 
 static void
-sweep (const pls_fluid_params *f, const pls_nozzle_params *p)
+nozzle_law (const pls_fluid_params *f, const void *p, double q, pls_drop *d)
 {
-  /* Odd, strictly increasing; dh/dq finite, > 0 (at q = 0 too) and equal
-   * to a central difference (step 1e-6 q; the law is smooth for q > 0, so
-   * 1e-6 covers truncation and round-off). */
-  double q, prev = 0.0;
-  pls_drop d0;
-
-  pls_nozzle_drop (f, p, 0.0, &d0);
-  ck_assert (d0.dh_dq > 0.0 && isfinite (d0.dh_dq));
-  for (q = 1e-16; q < 1e-2; q *= 1.15)
-    {
-      pls_drop d, dp, dm, dn;
-      double dq = 1e-6 * q;
-
-      pls_nozzle_drop (f, p, q, &d);
-      pls_nozzle_drop (f, p, q + dq, &dp);
-      pls_nozzle_drop (f, p, q - dq, &dm);
-      pls_nozzle_drop (f, p, -q, &dn);
-      ck_assert (isfinite (d.h) && d.dh_dq > 0.0 && isfinite (d.dh_dq));
-      ck_assert (d.h > prev);
-      ck_assert_msg (fabs ((dp.h - dm.h) / (2.0 * dq) / d.dh_dq - 1.0) < 1e-6,
-                     "q %g fd %g dh %g", q, (dp.h - dm.h) / (2.0 * dq), d.dh_dq);
-      ck_assert_double_eq (dn.h, -d.h);
-      ck_assert_double_eq (dn.dh_dq, d.dh_dq);
-      prev = d.h;
-    }
+  pls_nozzle_drop (f, p, q, d);
 }
 
 START_TEST (test_nozzle_contract)
@@ -192,7 +168,9 @@ START_TEST (test_nozzle_contract)
   pls_nozzle_params p = nozzle (m < 2 ? PLS_CD_LICHTAROWICZ : PLS_CD_FIXED, 0.6e-3,
                                 (m % 2) ? 3e-3 : 0.0, 0.7, (m == 3) ? 1e10 : 0.0);
 
-  sweep (&f, &p);
+  /* The law is smooth for q > 0, so 1e-6 covers the difference's
+   * truncation and round-off. */
+  fixture_check_odd_law (nozzle_law, &f, &p, 1e-16, 1e-2, 1.15, 1e-6);
 }
 END_TEST
 
@@ -266,11 +244,5 @@ nozzle_suite (void)
 int
 main (void)
 {
-  SRunner *sr = srunner_create (nozzle_suite ());
-  int failed;
-
-  srunner_run_all (sr, CK_NORMAL);
-  failed = srunner_ntests_failed (sr);
-  srunner_free (sr);
-  return failed == 0 ? EXIT_SUCCESS : EXIT_FAILURE;
+  return pl_check_run (nozzle_suite ());
 }

@@ -13,7 +13,7 @@
 
 #include "config.h"
 
-#include <check.h>
+#include "pl-check.h"
 #include <stdlib.h>
 #include <string.h>
 
@@ -355,12 +355,5 @@ oom_suite (void)
 int
 main (void)
 {
-  SRunner *sr;
-  int failed;
-
-  sr = srunner_create (oom_suite ());
-  srunner_run_all (sr, CK_NORMAL);
-  failed = srunner_ntests_failed (sr);
-  srunner_free (sr);
-  return failed == 0 ? EXIT_SUCCESS : EXIT_FAILURE;
+  return pl_check_run (oom_suite ());
 }

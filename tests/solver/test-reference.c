@@ -13,7 +13,7 @@
 
 #include "config.h"
 
-#include <check.h>
+#include "pl-check.h"
 #include <math.h>
 #include <stdlib.h>
 #include <string.h>
@@ -480,12 +480,6 @@ reference_suite (void)
 int
 main (void)
 {
-  SRunner *sr = srunner_create (reference_suite ());
-  int failed;
-
   gsl_set_error_handler_off ();
-  srunner_run_all (sr, CK_NORMAL);
-  failed = srunner_ntests_failed (sr);
-  srunner_free (sr);
-  return failed == 0 ? EXIT_SUCCESS : EXIT_FAILURE;
+  return pl_check_run (reference_suite ());
 }

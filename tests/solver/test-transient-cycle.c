@@ -7,7 +7,6 @@
 
 #include "config.h"
 
-#include <check.h>
 #include <math.h>
 #include <stdlib.h>
 #include <string.h>

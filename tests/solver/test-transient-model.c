@@ -10,7 +10,6 @@
 
 #include "config.h"
 
-#include <check.h>
 #include <math.h>
 #include <stdlib.h>
 #include <string.h>
