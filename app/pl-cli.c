@@ -182,8 +182,6 @@ pl_cli_print_usage (FILE *stream)
   fprintf (stream, "\n%s\n", _("Commands:"));
   for (const PlCliCommand *c = pl_cli_commands; c->name != NULL; c++)
     fprintf (stream, "  %-10s %s\n", c->name, _(c->summary));
-  if (pl_cli_commands[0].name == NULL)
-    fprintf (stream, "  %s\n", _("(none in this version)"));
 }
 
 static const PlCliCommand *

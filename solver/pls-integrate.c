@@ -48,6 +48,14 @@
  * tolerance (Hairer & Wanner sec. IV.8 suggest 0.01 to 0.1; smaller keeps
  * the volume balance tighter at a small cost). */
 #define PLS_NEWTON_FRACTION 1e-3
+/* A step that could grow by less than this keeps its length instead, so
+ * that the next step reuses the factor of its stage matrix, which depends
+ * on h (Hairer & Wanner, sec. IV.8, suggest holding h for ratios up to
+ * about 1.2). */
+#define PLS_HOLD_RATIO 1.2
+/* The rate-based test is trusted only while the iteration contracts at
+ * least this fast (a rate measured on two iterates is rough). */
+#define PLS_NEWTON_RATE 0.5
 
 static double
 pls_delta_p (const pls__model *m, const pls__tlink *l, const double *p)
@@ -67,6 +75,13 @@ pls_link_law (const pls__model *m, size_t k, double q, pls_drop *d)
   const pls__tlink *l = &m->links[k];
   const pls_element *e = &m->net->elements[l->elem];
 
+  if (fabs (q) < l->lam_qmax)
+    {
+      /* Laminar Newtonian: the branch pls_line_drop would take. */
+      d->h = l->lam_r * q;
+      d->dh_dq = l->lam_r;
+      return;
+    }
   switch (l->kind)
     {
     case PLS__LINK_SEGMENT:
@@ -242,6 +257,9 @@ pls_linear_solve (pls__model *m, pls_error *err)
   return PLS_OK;
 }
 
+static pls_status pls_algebraic_flow (const pls__model *m, size_t k, double dp, double *q,
+                                      pls_error *err);
+
 /* Newton on one stage: V(p) - hist_v = kappa * inflow at the free nodes,
  * I (q - hist_q) / kappa + h(q) = dP on the links (I = 0: algebraic).
  * Starts from m->p, m->q; leaves the solution there.  *converged = 0 if
@@ -333,13 +351,36 @@ pls_stage (pls__model *m, double kappa, int *converged, pls_error *err)
 
           if (m->g[k] == 0.0)
             continue;
+          /* An algebraic link (no inertance) whose linearised update would
+           * more than double its flow or turn it round is far from its law's
+           * straight part: a quadratic orifice or a shear-thinning passage
+           * near zero flow, where the tangent overshoots and Newton swings
+           * from side to side.  There its flow is taken from the law itself
+           * at the new pressures (the link's own equation solved exactly),
+           * which keeps the iteration on the law's graph; near convergence
+           * the steps are small and the plain update stands. */
+          if (m->links[k].inertance == 0.0 && fabs (m->dq[k]) > fabs (m->q[k]))
+            {
+              double q = m->q[k] + m->dq[k];
+
+              st = pls_algebraic_flow (m, k, pls_delta_p (m, &m->links[k], m->p), &q, err);
+              if (st != PLS_OK)
+                return st;
+              m->dq[k] = q - m->q[k];
+            }
           s = fabs (m->dq[k]) / (tol->atol_q + tol->rtol * fabs (m->q[k]));
           m->q[k] += m->dq[k];
           worst = s > worst ? s : worst;
         }
       if (!isfinite (worst))
         return PLS_OK;   /* not converged: the caller cuts the step */
-      if (worst <= PLS_NEWTON_FRACTION)
+      /* Converged when the update, or the error left after it as the
+       * contraction rate theta = |dx_k| / |dx_k-1| bounds it,
+       * theta / (1 - theta) |dx_k| (Hairer & Wanner, sec. IV.8, eq. 8.12),
+       * is below the fraction of the tolerance. */
+      if (worst <= PLS_NEWTON_FRACTION
+          || (it > 0 && worst < PLS_NEWTON_RATE * prev
+              && worst * worst / (prev - worst) <= PLS_NEWTON_FRACTION))
         {
           *converged = 1;
           return PLS_OK;
@@ -354,6 +395,32 @@ pls_stage (pls__model *m, double kappa, int *converged, pls_error *err)
       prev = worst;
     }
   return PLS_OK;
+}
+
+/* Predictor of the first stage: the quadratic through the last accepted
+ * step's three points (its dense output, as pls-cycle.c samples it),
+ * extrapolated to tp.  The stage starts from y_n otherwise, an O(h)
+ * guess; this one is O(h^3) while the solution is smooth, so Newton needs
+ * fewer iterations (Hairer & Wanner, sec. IV.8, "starting values").  Not
+ * used after a restart, nor for extrapolation beyond twice the last step,
+ * where a quadratic is no better than y_n. */
+static void
+pls_predict (pls__model *m, double tp)
+{
+  const double t0 = m->pred_t[0], tg = m->pred_t[1], t1 = m->pred_t[2];
+  double l0, lg, l1;
+  size_t i, k;
+
+  if (!m->pred_valid || !(tp - t1 <= 2.0 * (t1 - t0)) || !(tg > t0 && t1 > tg))
+    return;
+  l0 = (tp - tg) * (tp - t1) / ((t0 - tg) * (t0 - t1));
+  lg = (tp - t0) * (tp - t1) / ((tg - t0) * (tg - t1));
+  l1 = (tp - t0) * (tp - tg) / ((t1 - t0) * (t1 - tg));
+  for (i = 0; i < m->n_nodes; i++)
+    if (!m->nodes[i].fixed)
+      m->p[i] = l0 * m->pred_p0[i] + lg * m->pred_pg[i] + l1 * m->p0[i];
+  for (k = 0; k < m->n_links; k++)
+    m->q[k] = l0 * m->pred_q0[k] + lg * m->pred_qg[k] + l1 * m->q0[k];
 }
 
 /* One TR-BDF2 step of length h from (m->p, m->q) at t.  On return
@@ -382,6 +449,7 @@ pls_step (pls__model *m, const pls__schedule *s, double t, double h, int *conver
                                          : 0.0;
     }
   pls__schedule_apply (m, s, t + gam * h);
+  pls_predict (m, t + gam * h);
   st = pls_stage (m, kappa, converged, err);
   if (st != PLS_OK || !*converged)
     return st;
@@ -461,9 +529,6 @@ pls_step (pls__model *m, const pls__schedule *s, double t, double h, int *conver
   return PLS_OK;
 }
 
-static pls_status pls_algebraic_flow (const pls__model *m, size_t k, double dp, double *q,
-                                      pls_error *err);
-
 /* Flows of the algebraic links from their laws at the present pressures,
  * so that a run starts on a consistent state (after a change of the air
  * state, a dump valve that opens starts at its real flow, not at 0, which
@@ -510,8 +575,8 @@ pls_changeover (pls__model *m, double t)
   size_t k;
   int changed = 0;
 
-  if (!m->air_on)
-    return 0;
+  if (!m->air_on || !m->has_changeover)
+    return 0;   /* (the scan below reads every element: skip it when idle) */
   for (k = 0; k < m->n_links; k++)
     {
       const pls__tlink *l = &m->links[k];
@@ -568,6 +633,7 @@ pls__integrate (pls__model *m, const pls__schedule *s, double t0, double t1,
   pls_status st;
 
   m->stop = 0;
+  m->pred_valid = 0;
   if (!(h > 0.0))
     h = fmin (1e-4, 0.01 * (t1 - t0));
   pls__schedule_apply (m, s, t);
@@ -615,6 +681,14 @@ pls__integrate (pls__model *m, const pls__schedule *s, double t0, double t1,
           continue;
         }
       m->steps++;
+      memcpy (m->pred_p0, m->p0, n * sizeof *m->p0);
+      memcpy (m->pred_pg, m->pg, n * sizeof *m->pg);
+      memcpy (m->pred_q0, m->q0, l * sizeof *m->q0);
+      memcpy (m->pred_qg, m->qg, l * sizeof *m->qg);
+      m->pred_t[0] = t;
+      m->pred_t[1] = t + gam * hs;
+      m->pred_t[2] = landing ? te : t + hs;
+      m->pred_valid = 1;
       for (k = 0; k < l; k++)
         {
           double dv = hs * (w * (m->q0[k] + m->qg[k]) + w1 * m->q[k]);
@@ -635,6 +709,7 @@ pls__integrate (pls__model *m, const pls__schedule *s, double t0, double t1,
         {
           /* A pump stopped or restarted: its flow jumps, so f_n is taken
            * afresh from consistent algebraic flows. */
+          m->pred_valid = 0;
           st = pls_consistent_flows (m, err);
           if (st == PLS_OK)
             st = pls_forces (m, m->p, m->q, m->fv0, m->fq0, err);
@@ -654,6 +729,8 @@ pls__integrate (pls__model *m, const pls__schedule *s, double t0, double t1,
          * the error allows: keep the controller's earlier figure then. */
         if (landing && hs < h)
           h = fmax (h, hs * grow);
+        else if (grow >= 1.0 && grow <= PLS_HOLD_RATIO && m->fact_valid)
+          h = hs;   /* hold: the factor of this step serves the next one */
         else
           h = hs * grow;
       }

@@ -278,10 +278,10 @@ pls_model_alloc (pls__model *m)
     return PLS_ERR_NOMEM;
   {
     double **nv[] = { &m->p, &m->p0, &m->pg, &m->hist_v, &m->fv0, &m->fvg, &m->fv1,
-                      &m->rn, &m->dp, &m->ev };
+                      &m->rn, &m->dp, &m->ev, &m->pred_p0, &m->pred_pg };
     double **lv[] = { &m->q, &m->q0, &m->qg, &m->hist_q, &m->fq0, &m->fqg, &m->fq1,
                       &m->g, &m->rl, &m->dq, &m->eq, &m->h, &m->dh, &m->qint,
-                      &m->stroke, &m->gap_end };
+                      &m->stroke, &m->gap_end, &m->pred_q0, &m->pred_qg };
     size_t i;
 
     for (i = 0; i < sizeof nv / sizeof nv[0]; i++)
@@ -320,7 +320,7 @@ pls__model_free (pls__model *m)
     double *v[] = { m->p, m->p0, m->pg, m->hist_v, m->fv0, m->fvg, m->fv1, m->rn, m->dp,
                     m->ev, m->q, m->q0, m->qg, m->hist_q, m->fq0, m->fqg, m->fq1, m->g,
                     m->rl, m->dq, m->eq, m->h, m->dh, m->qint, m->stroke,
-                    m->gap_end };
+                    m->gap_end, m->pred_p0, m->pred_pg, m->pred_q0, m->pred_qg };
     size_t i;
 
     for (i = 0; i < sizeof v / sizeof v[0]; i++)
@@ -353,6 +353,36 @@ pls_line_segments (const pls_network *net, const pls_line_params *l,
   if (n > o->max_segments)
     n = o->max_segments;
   return (int) n;
+}
+
+/* The laminar branch of pls_line_drop for a Newtonian fluid, as a constant
+ * resistance: Hagen-Poiseuille, h = 128 mu L q / (pi D^4) (written as
+ * pls_line_drop has it, 2 L tau_w / R with tau_w = 4 mu q / (pi R^3)), which
+ * pls_line_drop returns for every flow whose Reynolds number
+ * Re = rho V D / mu = 2 rho |q| (pi R^3) / (mu A^2) is at or below the
+ * transition band's lower end.  lam_qmax is that flow less 1e-9 of it, so a
+ * rounding difference in Re never takes the shortcut where the full law
+ * would blend in turbulent friction.  Every Newton iteration evaluates
+ * every link: on a large manifold this is most of the law work. */
+static void
+pls_laminar_shortcut (const pls_fluid_params *f, const pls_line_params *line, double scale,
+                      pls__tlink *l)
+{
+  double r = 0.5 * line->bore, k = PLS_PI * r * r * r, area = PLS_PI * r * r;
+  double mu0, re_lo;
+
+  l->lam_r = 0.0;
+  l->lam_qmax = 0.0;
+  if (!pls_fluid_is_newtonian (f))
+    return;
+  mu0 = pls_fluid_zero_shear_viscosity (f);
+  pls_line_transition_band (f, &re_lo, NULL);
+  if (!(mu0 > 0.0 && isfinite (mu0) && r > 0.0 && line->length > 0.0))
+    return;
+  l->lam_r = 2.0 * line->length * (4.0 * mu0 / k) / r * scale;
+  l->lam_qmax = (1.0 - 1e-9) * re_lo * mu0 * area * area / (2.0 * f->density * k);
+  if (!(isfinite (l->lam_r) && l->lam_r > 0.0 && isfinite (l->lam_qmax)))
+    l->lam_qmax = 0.0;
 }
 
 /* CHOLMOD set-up: the pattern of the nodal matrix (pls__pattern, shared
@@ -461,8 +491,12 @@ pls__model_new (const pls_network *net, const pls__model_options *o, pls__model 
           if (e->u.valve.kind == PLS_VALVE_DUMP || e->u.valve.open)
             nl++;
           break;
-        case PLS_ELEMENT_FITTING:
         case PLS_ELEMENT_PUMP:
+          if (e->u.pump.changeover_time > 0.0)
+            m->has_changeover = 1;
+          nl++;
+          break;
+        case PLS_ELEMENT_FITTING:
         case PLS_ELEMENT_CUSTOM:
           nl++;
           break;
@@ -522,6 +556,7 @@ pls__model_new (const pls_network *net, const pls__model_options *o, pls__model 
                 l->inertance = net->fluid.density * dx / area;
                 l->scale = 1.0 / n;
                 l->app = -1;
+                pls_laminar_shortcut (&net->fluid, &e->u.line, l->scale, l);
                 m->nodes[na].compliance += 0.5 * cp * dx;
                 m->nodes[nb].compliance += 0.5 * cp * dx;
                 if (s < n - 1)
@@ -559,6 +594,7 @@ pls__model_new (const pls_network *net, const pls__model_options *o, pls__model 
             l->neck.kind = PLS_LINE_PIPE;
             l->neck.length = ap->neck_length;
             l->neck.bore = ap->neck_diameter;
+            pls_laminar_shortcut (&net->fluid, &l->neck, 1.0, l);
             link++;
             node++;
           }

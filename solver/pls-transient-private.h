@@ -40,6 +40,11 @@ typedef struct
   double scale;       /* segment: fraction of the line's length, else 1     */
   int app;            /* applicator index (nozzles), else -1                */
   pls_line_params neck; /* the neck as a rigid pipe (NECK links)            */
+  /* Laminar Newtonian shortcut (SEGMENT and NECK links of a Newtonian
+   * fluid): below lam_qmax the law is Hagen-Poiseuille, h = lam_r q, the
+   * branch pls_line_drop takes there; lam_qmax = 0: always the full law. */
+  double lam_r;       /* Pa s/m^3                                           */
+  double lam_qmax;    /* m^3/s                                              */
 } pls__tlink;
 
 typedef struct
@@ -125,6 +130,14 @@ struct pls__model
   double *stroke;                /* n_links: pumps' volume in this stroke  */
   double *gap_end;               /* n_links: end of a pump's changeover gap
                                     (s), 0 when the pump is running       */
+  /* The last accepted step's start and inner stage (its end is m->p, m->q)
+   * at times pred_t[0], pred_t[1] (end pred_t[2]): the predictor of the
+   * next step's first stage; pred_valid = 0 after a restart. */
+  double *pred_p0, *pred_pg;     /* n_nodes                                */
+  double *pred_q0, *pred_qg;     /* n_links                                */
+  double pred_t[3];
+  int pred_valid;
+  int has_changeover;            /* 1: some pump has a changeover gap       */
 
   /* Nodal matrix: pattern from pls__pattern, values each Newton step. */
   pls_work w;                    /* pattern only (links, ap, ai, nnz)       */

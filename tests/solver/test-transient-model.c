@@ -405,6 +405,72 @@ START_TEST (test_joukowsky_surge)
 }
 END_TEST
 
+/* ---- the laminar shortcut of segment and neck links ---------------------- */
+
+/* The model keeps Hagen-Poiseuille as a constant resistance per segment
+ * and neck (pls__tlink lam_r, below lam_qmax).  It must agree with the
+ * closed form dp = 128 mu L Q / (pi D^4) (PHYSICS.md check values) and
+ * with pls_line_drop, and stop where pls_line_drop leaves the laminar
+ * branch: Re = rho V D / mu = 2100 (the Newtonian transition band's lower
+ * end, PHYSICS.md).  Water (1 mPa s) so the cutoff, about 6.6 mL/s in the
+ * 4 mm line, is well inside the flows a run sees.  Tolerance 1e-12
+ * relative: the shortcut and the law differ only in rounding order. */
+static const int shortcut_segments[] = { 1, 5 };
+
+START_TEST (test_laminar_shortcut)
+{
+  pls_fluid_params f = fluid (1000.0, 2.2e9, 1e-3);
+  pls_network *net = pls_network_new (&f, NULL, NULL);
+  pls_accumulator_params ap = accumulator (1e-3, 50e5, 1.0);
+  pls_line_params lp = pipe (2.0, 4e-3, 1.5e-3, 2e11);
+  int n = shortcut_segments[_i], tank, a, checked = 0;
+  pls__model *m;
+  pls_error err;
+  size_t k;
+
+  tank = pls_network_add_fixed_node (net, 0.0, 0.0, "T", NULL);
+  a = pls_network_add_node (net, 0.0, "A", NULL);
+  ck_assert_int_ge (pls_network_add_line (net, a, tank, &lp, "L1", NULL), 0);
+  ck_assert_int_ge (pls_network_add_accumulator (net, a, &ap, "C1", &err), 0);
+  m = model_for (net, n, 1e-6, 1e-4, 1e-15);
+  for (k = 0; k < m->n_links; k++)
+    {
+      const pls__tlink *l = &m->links[k];
+      const pls_line_params *line = l->kind == PLS__LINK_NECK ? &l->neck : &lp;
+      double len = l->kind == PLS__LINK_NECK ? ap.neck_length : lp.length * l->scale;
+      double d = line->bore, area = 0.25 * PLS_PI * d * d;
+      /* Re = 2100 at V = 2100 mu / (rho D). */
+      double q_c = 2100.0 * f.mu / (f.density * d) * area;
+      const double at[] = { 0.0, 1e-3, 0.5, 0.999, -0.999 };
+      pls_line_state state;
+      pls_drop dr;
+      size_t j;
+
+      if (l->kind != PLS__LINK_SEGMENT && l->kind != PLS__LINK_NECK)
+        continue;
+      checked++;
+      ck_assert_double_eq_tol (l->lam_r, 128.0 * f.mu * len / (PLS_PI * pow (d, 4)),
+                               1e-12 * l->lam_r);
+      ck_assert_double_eq_tol (l->lam_qmax, q_c, 1e-8 * q_c);
+      for (j = 0; j < sizeof at / sizeof at[0]; j++)
+        {
+          double q = at[j] * q_c;
+
+          pls_line_drop (&f, line, q, &dr, &state);
+          ck_assert_int_eq (state.regime, PLS_REGIME_LAMINAR);
+          ck_assert_double_eq_tol (dr.h * (l->kind == PLS__LINK_SEGMENT ? l->scale : 1.0),
+                                   l->lam_r * q, 1e-12 * fabs (l->lam_r * q) + 1e-300);
+        }
+      /* Just above the cutoff the law blends in turbulent friction. */
+      pls_line_drop (&f, line, 1.001 * q_c, &dr, &state);
+      ck_assert_int_eq (state.regime, PLS_REGIME_TRANSITION);
+    }
+  ck_assert_int_eq (checked, n + 1);
+  pls__model_free (m);
+  pls_network_free (net);
+}
+END_TEST
+
 static Suite *
 transient_model_suite (void)
 {
@@ -418,6 +484,8 @@ transient_model_suite (void)
                        (int) (sizeof ladder_n / sizeof ladder_n[0]));
   tcase_add_test (tc, test_korteweg_speed);
   tcase_add_loop_test (tc, test_joukowsky_surge, 0, (int) (sizeof surge_n / sizeof surge_n[0]));
+  tcase_add_loop_test (tc, test_laminar_shortcut, 0,
+                       (int) (sizeof shortcut_segments / sizeof shortcut_segments[0]));
   suite_add_tcase (s, tc);
   return s;
 }
