@@ -4,11 +4,12 @@
  * results, and the search for the highest cycle rate that keeps the shots
  * uniform.  Also the pieces the shutdown shares: options, the idle start.
  *
- * Periodic steady state by plain repetition ("brute-force" shooting):
- * the schedule is integrated cycle after cycle from the idle state until
- * the largest change of a model node pressure between the starts of two
- * successive cycles, relative to the largest idle pressure, falls below
- * the tolerance.  The last cycle is reported.
+ * Periodic steady state: the schedule is integrated cycle after cycle
+ * from the idle state until the largest change of a model node pressure
+ * between the starts of two successive cycles, relative to the largest
+ * idle pressure, falls below the tolerance; between cycles the sequence
+ * of cycle-start states is extrapolated to its limit (pls_rre_add).  The
+ * last cycle is reported.
  */
 
 #include "config.h"
@@ -499,62 +500,198 @@ pls_cycle_finish (pls_cycle_result *r, pls__model *m, pls_tracker *tr, double v_
   return PLS_OK;
 }
 
-/* Extrapolation of the cycle map to its fixed point (Skelboe, "Computation
- * of the periodic steady-state response of nonlinear networks by
- * extrapolation methods", IEEE Trans. Circuits Syst. 27(3), 1980, in its
- * simplest, one-mode form).  Near the periodic state the change over a
- * cycle shrinks by the map's dominant eigenvalue lambda a cycle, here the
- * slow charging of the accumulators and hoses by the pump; with d_k the
- * change of cycle k, lambda = <d_k, d_k-1> / <d_k-1, d_k-1>, and the fixed
- * point is x_k + lambda / (1 - lambda) d_k.  Applied only when two
- * successive changes agree with a single mode (residual below 30 %), never
- * twice in a row, so the convergence test always sees a plain cycle. */
-static void
-pls_extrapolate (pls__model *m, const double *pprev, double *dprev, const double *qprev,
-                 double *dqprev, double pref, int *have_prev)
+/* Extrapolation of the cycle map x -> F(x) to its fixed point by reduced
+ * rank extrapolation (RRE; Smith, Ford & Sidi, "Extrapolation methods for
+ * vector sequences", SIAM Review 29(2), 1987, sec. 3, in its restarted
+ * "cycling" form, sec. 6).  x_0 is the state at the start of a plain run
+ * of cycles, x_1 .. x_L the states after each; u_j = x_{j+1} - x_j.  RRE
+ * takes the weights gamma (sum 1) that minimise |sum gamma_j u_j|, i.e.
+ * gamma = y / sum y with G y = 1, G_ij = <u_i, u_j>, and the estimate
+ * s = sum gamma_j x_{j+1}.  Near the periodic state F is close to linear
+ * and the change is made of a few slowly decaying modes (the accumulators
+ * and hoses charged by the pump through the supply line), which L
+ * differences remove exactly; L = 2 is the one-mode extrapolation of
+ * Skelboe (IEEE Trans. Circuits Syst. 27(3), 1980).  The fit's residual
+ * |sum gamma_j u_j| = 1 / sqrt(sum y) estimates the change left after
+ * the jump: it is taken when that is below PLS_RRE_GAIN of the last plain
+ * change, and the run restarts from s; a window of PLS_RRE_MAX differences
+ * without such a fit slides on.  The weights are fitted on the pressures
+ * (what the periodicity test measures; the end-of-cycle flows carry the
+ * ringing of the last valve event) and applied to pressures and flows.
+ * The convergence test always sees a plain cycle from the state it
+ * measures, so the periodicity criterion is unchanged. */
+#define PLS_RRE_MAX 6
+#define PLS_RRE_GAIN 0.3
+/* Largest jump, in multiples of the last change: a one-mode decay with
+ * lambda = 0.995 asks for 199. */
+#define PLS_RRE_JUMP 200.0
+
+typedef struct
 {
-  double dd = 0.0, dp = 0.0, pp = 0.0, qref = 0.0, lambda, res = 0.0;
-  size_t i, k;
+  size_t n;        /* vector length: free node pressures, link flows    */
+  size_t nfit;     /* leading components the weights are fitted on      */
+  int len;         /* vectors held: x_0 .. x_{len-1}                    */
+  double pref, qref;
+  double *x;       /* (PLS_RRE_MAX + 1) x n, scaled states             */
+} pls_rre;
 
+static void
+pls_rre_pack (const pls__model *m, const pls_rre *e, double *x)
+{
+  size_t j, k;
+
+  for (j = 0; j < m->nf; j++)
+    x[j] = m->p[m->col_node[j]] / e->pref;
   for (k = 0; k < m->n_links; k++)
-    qref = fmax (qref, fabs (m->q[k]));
-  qref = fmax (qref, 1e-12);
-  for (i = 0; i < m->n_nodes; i++)
-    {
-      double d = (m->p[i] - pprev[i]) / pref;
+    x[m->nf + k] = m->q[k] / e->qref;
+}
 
-      dd += d * d;
-      dp += d * dprev[i];
-      pp += dprev[i] * dprev[i];
+/* Solves the small dense system G y = b in place by Gaussian elimination
+ * with partial pivoting; 0 if singular. */
+static int
+pls_rre_solve (double *g, double *b, int l)
+{
+  int i, j, k;
+
+  for (k = 0; k < l; k++)
+    {
+      int piv = k;
+
+      for (i = k + 1; i < l; i++)
+        if (fabs (g[i * l + k]) > fabs (g[piv * l + k]))
+          piv = i;
+      if (!(fabs (g[piv * l + k]) > 0.0))
+        return 0;
+      if (piv != k)
+        {
+          double t;
+
+          for (j = 0; j < l; j++)
+            {
+              t = g[k * l + j];
+              g[k * l + j] = g[piv * l + j];
+              g[piv * l + j] = t;
+            }
+          t = b[k];
+          b[k] = b[piv];
+          b[piv] = t;
+        }
+      for (i = k + 1; i < l; i++)
+        {
+          double f = g[i * l + k] / g[k * l + k];
+
+          for (j = k; j < l; j++)
+            g[i * l + j] -= f * g[k * l + j];
+          b[i] -= f * b[k];
+        }
     }
+  for (k = l - 1; k >= 0; k--)
+    {
+      double v = b[k];
+
+      for (j = k + 1; j < l; j++)
+        v -= g[k * l + j] * b[j];
+      b[k] = v / g[k * l + k];
+    }
+  return 1;
+}
+
+/* Restarts the sequence at the model's present state. */
+static void
+pls_rre_restart (pls_rre *e, const pls__model *m)
+{
+  size_t k;
+
+  e->qref = 1e-12;
   for (k = 0; k < m->n_links; k++)
-    {
-      double d = (m->q[k] - qprev[k]) / qref;
+    e->qref = fmax (e->qref, fabs (m->q[k]));
+  pls_rre_pack (m, e, e->x);
+  e->len = 1;
+}
 
-      dd += d * d;
-      dp += d * dqprev[k];
-      pp += dqprev[k] * dqprev[k];
-    }
-  lambda = *have_prev && pp > 0.0 ? dp / pp : 0.0;
-  /* Residual of the one-mode fit: |d - lambda d_prev|^2. */
-  res = dd - 2.0 * lambda * dp + lambda * lambda * pp;
-  if (*have_prev && lambda > 0.0 && lambda < 0.995 && res < 0.09 * dd)
-    {
-      double f = lambda / (1.0 - lambda);
+/* Adds the state after a plain cycle; extrapolates (changing m->p, m->q)
+ * and restarts when the fit promises enough. */
+static void
+pls_rre_add (pls_rre *e, pls__model *m)
+{
+  double g[PLS_RRE_MAX * PLS_RRE_MAX], y[PLS_RRE_MAX], gam[PLS_RRE_MAX];
+  double sum = 0.0, res, last = 0.0, jump = 0.0, trace = 0.0;
+  const size_t n = e->n;
+  int i, j, l;
+  size_t a;
 
-      for (i = 0; i < m->n_nodes; i++)
-        if (!m->nodes[i].fixed)
-          m->p[i] += f * (m->p[i] - pprev[i]);
-      for (k = 0; k < m->n_links; k++)
-        m->q[k] += f * (m->q[k] - qprev[k]);
-      *have_prev = 0;
-      return;
+  pls_rre_pack (m, e, e->x + (size_t) e->len * n);
+  e->len++;
+  l = e->len - 1;
+  if (l < 2)
+    return;
+  for (i = 0; i < l; i++)
+    for (j = i; j < l; j++)
+      {
+        const double *xi = e->x + (size_t) i * n, *xj = e->x + (size_t) j * n;
+        double v = 0.0;
+
+        for (a = 0; a < e->nfit; a++)
+          v += (xi[n + a] - xi[a]) * (xj[n + a] - xj[a]);
+        g[i * l + j] = g[j * l + i] = v;
+      }
+  last = g[(l - 1) * l + (l - 1)];
+  for (i = 0; i < l; i++)
+    trace += g[i * l + i];
+  /* A relative ridge: the differences of a one-mode decay are parallel
+   * and G singular; the ridge picks the least-norm weights then. */
+  for (i = 0; i < l; i++)
+    {
+      g[i * l + i] += 1e-13 * trace;
+      y[i] = 1.0;
     }
-  for (i = 0; i < m->n_nodes; i++)
-    dprev[i] = (m->p[i] - pprev[i]) / pref;
-  for (k = 0; k < m->n_links; k++)
-    dqprev[k] = (m->q[k] - qprev[k]) / qref;
-  *have_prev = 1;
+  if (!(last > 0.0) || !pls_rre_solve (g, y, l))
+    goto slide;
+  for (i = 0; i < l; i++)
+    sum += y[i];
+  if (!(sum > 0.0) || !isfinite (sum))
+    goto slide;
+  res = 1.0 / sum;            /* |sum gamma_j u_j|^2 */
+  if (res >= PLS_RRE_GAIN * PLS_RRE_GAIN * last)
+    goto slide;
+  for (i = 0; i < l; i++)
+    gam[i] = y[i] / sum;
+  /* s - x_L = sum gamma_j (x_{j+1} - x_L), in the slot after x_L. */
+  {
+    double *s = e->x + (size_t) e->len * n;
+    const double *xl = e->x + (size_t) l * n;
+
+    for (a = 0; a < n; a++)
+      {
+        double v = 0.0;
+
+        for (j = 0; j < l; j++)
+          v += gam[j] * (e->x[(size_t) (j + 1) * n + a] - xl[a]);
+        if (a < e->nfit)
+          jump += v * v;
+        s[a] = v;
+      }
+    if (!isfinite (jump) || jump > PLS_RRE_JUMP * PLS_RRE_JUMP * last)
+      goto slide;
+    for (a = 0; a < m->nf; a++)
+      m->p[m->col_node[a]] += e->pref * s[a];
+    for (a = 0; a < m->n_links; a++)
+      m->q[a] += e->qref * s[m->nf + a];
+    /* The predictor of the next step's first stage belongs to the state
+     * before the jump. */
+    m->pred_valid = 0;
+  }
+  pls_rre_restart (e, m);
+  return;
+
+slide:
+  /* A full window without a good fit: the oldest state leaves it (the
+   * newest cycles are the nearest to the linear regime). */
+  if (e->len > PLS_RRE_MAX)
+    {
+      memmove (e->x, e->x + n, (size_t) (e->len - 1) * n * sizeof *e->x);
+      e->len--;
+    }
 }
 
 /* The cycle run on a started model; r gets the results. */
@@ -567,21 +704,23 @@ pls_run_cycles (pls__model *m, const pls_transient_options *o, pls_cycle_result 
   pls__schedule s;
   pls_tracker tr;
   double *app_delay = NULL, *pprev = NULL, pref = 1.0, t = 0.0, max_delay = 0.0;
-  double *dprev = NULL, *qprev = NULL, *dqprev = NULL;
+  pls_rre rre;
   pls_status st = PLS_OK;
   size_t i, j;
-  int c, have_prev = 0;
+  int c;
 
   memset (&tr, 0, sizeof tr);
   r->period = 1.0 / o->cycle_rate;
   app_delay = pls__calloc (a, m->n_app + 1, sizeof *app_delay);
   pprev = pls__calloc (a, m->n_nodes, sizeof *pprev);
-  dprev = pls__calloc (a, m->n_nodes, sizeof *dprev);
-  qprev = pls__calloc (a, m->n_links + 1, sizeof *qprev);
-  dqprev = pls__calloc (a, m->n_links + 1, sizeof *dqprev);
+  memset (&rre, 0, sizeof rre);
+  rre.n = m->nf + m->n_links;
+  rre.nfit = m->nf;
+  /* PLS_RRE_MAX + 2 vectors: x_0 .. x_L and the jump. */
+  rre.x = pls__calloc (a, (PLS_RRE_MAX + 2) * rre.n + 1, sizeof *rre.x);
   tr.pint = pls__calloc (a, r->n_nodes, sizeof (double));
   tr.last_out = pls__calloc (a, r->n_nodes, sizeof (double));
-  if (!app_delay || !pprev || !dprev || !qprev || !dqprev || !tr.pint || !tr.last_out)
+  if (!app_delay || !pprev || !rre.x || !tr.pint || !tr.last_out)
     {
       st = pls__error (err, PLS_ERR_NOMEM, -1, -1, "out of memory in the cycle run");
       goto out;
@@ -609,8 +748,9 @@ pls_run_cycles (pls__model *m, const pls_transient_options *o, pls_cycle_result 
       r->pidle[i] = m->p[i];
       pref = fmax (pref, fabs (m->p[i]));
     }
+  rre.pref = pref;
   memcpy (pprev, m->p, m->n_nodes * sizeof *pprev);
-  memcpy (qprev, m->q, m->n_links * sizeof *qprev);
+  pls_rre_restart (&rre, m);
   for (c = 1; c <= o->max_cycles; c++)
     {
       double v_start = pls__stored_volume (m), change = 0.0;
@@ -642,9 +782,8 @@ pls_run_cycles (pls__model *m, const pls_transient_options *o, pls_cycle_result 
           r->periodic = 1;
           break;
         }
-      pls_extrapolate (m, pprev, dprev, qprev, dqprev, pref, &have_prev);
+      pls_rre_add (&rre, m);
       memcpy (pprev, m->p, m->n_nodes * sizeof *pprev);
-      memcpy (qprev, m->q, m->n_links * sizeof *qprev);
     }
   if (!r->periodic
       && pls__finding_add (&r->findings, a, PLS_SEVERITY_WARNING, "not-periodic", -1, -1,
@@ -656,9 +795,7 @@ pls_run_cycles (pls__model *m, const pls_transient_options *o, pls_cycle_result 
 out:
   pls__free (a, app_delay);
   pls__free (a, pprev);
-  pls__free (a, dprev);
-  pls__free (a, qprev);
-  pls__free (a, dqprev);
+  pls__free (a, rre.x);
   pls__free (a, tr.pint);
   pls__free (a, tr.last_out);
   return st;

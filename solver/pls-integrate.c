@@ -69,8 +69,8 @@ pls_delta_p (const pls__model *m, const pls__tlink *l, const double *p)
 }
 
 /* Law of link k at flow q. */
-static void
-pls_link_law (const pls__model *m, size_t k, double q, pls_drop *d)
+void
+pls__link_law (const pls__model *m, size_t k, double q, pls_drop *d)
 {
   const pls__tlink *l = &m->links[k];
   const pls_element *e = &m->net->elements[l->elem];
@@ -81,6 +81,33 @@ pls_link_law (const pls__model *m, size_t k, double q, pls_drop *d)
       d->h = l->lam_r * q;
       d->dh_dq = l->lam_r;
       return;
+    }
+  if (l->pl_on)
+    {
+      /* Laminar power law (pls_power_law_shortcut in pls-lumped.c): the
+       * operations of pls_line_drop's closed form in its order. */
+      const pls_fluid_params *f = &m->net->fluid;
+      double aq = fabs (q), n = f->flow_index, kc = f->consistency, gc = l->pl_gc;
+      double gamma = l->pl_s * aq, g2 = gamma * gamma + gc * gc;
+      double base = kc * pow (g2, 0.5 * (n - 3.0)), tau = base * g2 * gamma;
+      double vel = aq / l->pl_area, re = 0.0;
+
+      if (aq > 0.0 && tau > 0.0)
+        re = 8.0 * f->density * vel * vel / tau;
+      if (!(re > l->pl_re_lo))
+        {
+          double dtau = l->pl_s * base * (n * gamma * gamma + gc * gc);
+          double h = 2.0 * l->pl_len * tau / l->pl_r, dh = 2.0 * l->pl_len * dtau / l->pl_r;
+
+          d->h = (q < 0.0 ? -1.0 : 1.0) * h;
+          d->dh_dq = dh;
+          if (l->kind == PLS__LINK_SEGMENT)
+            {
+              d->h *= l->scale;
+              d->dh_dq *= l->scale;
+            }
+          return;
+        }
     }
   switch (l->kind)
     {
@@ -158,7 +185,7 @@ pls_forces (const pls__model *m, const double *p, const double *q, double *fv, d
         {
           pls_drop d;
 
-          pls_link_law (m, k, q[k], &d);
+          pls__link_law (m, k, q[k], &d);
           if (!isfinite (d.h) || !isfinite (d.dh_dq) || !(d.dh_dq > 0.0))
             return pls_law_error (m, k, q[k], &d, err);
           fq[k] = pls_delta_p (m, l, p) - d.h;
@@ -296,7 +323,7 @@ pls_stage (pls__model *m, double kappa, int *converged, pls_error *err)
                 refactor = 1;
               continue;
             }
-          pls_link_law (m, k, m->q[k], &d);
+          pls__link_law (m, k, m->q[k], &d);
           if (!isfinite (d.h) || !isfinite (d.dh_dq) || !(d.dh_dq > 0.0))
             return pls_law_error (m, k, m->q[k], &d, err);
           m->rl[k] = d.h - pls_delta_p (m, l, m->p);
@@ -847,7 +874,7 @@ pls_algebraic_flow (const pls__model *m, size_t k, double dp, double *q, pls_err
   pls_drop d;
   int it;
 
-  pls_link_law (m, k, x, &d);
+  pls__link_law (m, k, x, &d);
   if (!isfinite (d.h))
     return pls_law_error (m, k, x, &d, err);
   /* Bracket. */
@@ -857,7 +884,7 @@ pls_algebraic_flow (const pls__model *m, size_t k, double dp, double *q, pls_err
       {
         lo -= step;
         step *= 2.0;
-        pls_link_law (m, k, lo, &d);
+        pls__link_law (m, k, lo, &d);
         if (d.h <= dp)
           break;
       }
@@ -866,7 +893,7 @@ pls_algebraic_flow (const pls__model *m, size_t k, double dp, double *q, pls_err
       {
         hi += step;
         step *= 2.0;
-        pls_link_law (m, k, hi, &d);
+        pls__link_law (m, k, hi, &d);
         if (d.h >= dp)
           break;
       }
@@ -874,7 +901,7 @@ pls_algebraic_flow (const pls__model *m, size_t k, double dp, double *q, pls_err
     {
       double nx;
 
-      pls_link_law (m, k, x, &d);
+      pls__link_law (m, k, x, &d);
       if (d.h > dp)
         hi = x;
       else

@@ -364,6 +364,37 @@ pls_line_segments (const pls_network *net, const pls_line_params *l,
  * rounding difference in Re never takes the shortcut where the full law
  * would blend in turbulent friction.  Every Newton iteration evaluates
  * every link: on a large manifold this is most of the law work. */
+/* The power-law counterpart: pls_line_drop's laminar closed form
+ * (Rabinowitsch-Mooney, regularised below the corner wall rate gamma_c;
+ * see power_law_wall_state in pls-line.c), h = scale (2L/R) tau_w with
+ *   tau_w = K gamma (gamma^2 + gamma_c^2)^((n-1)/2),  gamma = s |q|,
+ *   s = (3n+1) / (pi n R^3),  gamma_c = gc exp(log1p((n-1)/(3n+1))/(n-1)),
+ * taken while the Metzner-Reed number 8 rho V^2 / tau_w is at or below the
+ * Ryan-Johnson onset.  gamma_c and the onset depend only on the fluid:
+ * computing them once leaves one pow per evaluation of the three
+ * transcendental pairs the full law takes.  pls__link_law repeats the full
+ * law's operations in its order, so the two agree to the last bit (the
+ * shutdown's safe time is sensitive to the last bits of the law). */
+static void
+pls_power_law_shortcut (const pls_fluid_params *f, const pls_line_params *line,
+                        pls__tlink *l)
+{
+  double n = f->flow_index, d = line->bore, r = 0.5 * d, expo;
+
+  if (f->law != PLS_VISCOSITY_POWER_LAW || !(n > 0.0) || !(r > 0.0)
+      || !(line->length > 0.0) || !(f->consistency > 0.0))
+    return;
+  /* The expressions of pls-line.c, so the values are the same doubles. */
+  expo = n == 1.0 ? 0.25 : log1p ((n - 1.0) / (3.0 * n + 1.0)) / (n - 1.0);
+  l->pl_gc = PLS_POWER_LAW_PLATEAU_SHEAR * exp (expo);
+  l->pl_s = (3.0 * n + 1.0) / (PLS_PI * n * r * r * r);
+  l->pl_area = 0.25 * PLS_PI * d * d;
+  l->pl_len = line->length;
+  l->pl_r = r;
+  pls_line_transition_band (f, &l->pl_re_lo, NULL);
+  l->pl_on = isfinite (l->pl_gc) && isfinite (l->pl_s) && isfinite (l->pl_re_lo);
+}
+
 static void
 pls_laminar_shortcut (const pls_fluid_params *f, const pls_line_params *line, double scale,
                       pls__tlink *l)
@@ -373,8 +404,12 @@ pls_laminar_shortcut (const pls_fluid_params *f, const pls_line_params *line, do
 
   l->lam_r = 0.0;
   l->lam_qmax = 0.0;
+  l->pl_on = 0;
   if (!pls_fluid_is_newtonian (f))
-    return;
+    {
+      pls_power_law_shortcut (f, line, l);
+      return;
+    }
   mu0 = pls_fluid_zero_shear_viscosity (f);
   pls_line_transition_band (f, &re_lo, NULL);
   if (!(mu0 > 0.0 && isfinite (mu0) && r > 0.0 && line->length > 0.0))

@@ -45,6 +45,16 @@ typedef struct
    * branch pls_line_drop takes there; lam_qmax = 0: always the full law. */
   double lam_r;       /* Pa s/m^3                                           */
   double lam_qmax;    /* m^3/s                                              */
+  /* Laminar power-law shortcut (SEGMENT and NECK links of a power-law
+   * fluid): the closed form of pls_line_drop, operation for operation,
+   * with its flow-independent factors computed once; pl_on = 0: always
+   * the full law. */
+  int pl_on;
+  double pl_len, pl_r; /* line length and bore radius, m                   */
+  double pl_area;     /* bore area, m^2                                     */
+  double pl_s;        /* (3n+1) / (pi n R^3): gamma_w = pl_s |q|            */
+  double pl_gc;       /* corner wall rate, 1/s                              */
+  double pl_re_lo;    /* Ryan-Johnson onset: the full law above it          */
 } pls__tlink;
 
 typedef struct
@@ -217,6 +227,9 @@ pls_status pls__ode_rhs (pls__model *m, double t, const pls__schedule *s, const 
 /* Fills the model state from a steady result (node pressures, element
  * flows; interior line nodes interpolated, chambers at their node). */
 void pls__model_from_steady (pls__model *m, const pls_steady_result *r);
+/* Law of link k at flow q as the integrator evaluates it (shortcuts
+ * included); for the tests' check against the element laws. */
+void pls__link_law (const pls__model *m, size_t k, double q, pls_drop *d);
 
 /* ---- shared by the cycle and the shutdown (pls-cycle.c) ----------------- */
 

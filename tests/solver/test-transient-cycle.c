@@ -401,6 +401,164 @@ START_TEST (test_changeover)
 }
 END_TEST
 
+/* The periodic state found with extrapolation against plain repetition of
+ * the cycle map ("brute-force" shooting) run far past the periodicity
+ * tolerance.  The extrapolation is reduced rank extrapolation on the
+ * end-of-cycle states (Smith, Ford & Sidi, SIAM Review 29(2), 1987); the
+ * reference uses no extrapolation at all, only the integrator, so the two
+ * share nothing but the model and the step rules.  Layouts: stations,
+ * manifold bore (m). */
+static const struct
+{
+  int stations;
+  double bore;
+} periodic_case[] = {
+  { 1, 10e-3 },
+  { 3, 6e-3 },
+};
+
+START_TEST (test_periodic_matches_brute_force)
+{
+  pls_test_layout l = pls_test_layout_new (periodic_case[_i].stations, 0,
+                                           periodic_case[_i].bore);
+  pls_transient_options o;
+  pls_cycle_result *r;
+  pls__model *m = NULL;
+  pls__schedule s;
+  pls_error err;
+  double *pprev, pref = 1.0, t = 0.0, change = 1.0, last = 0.0, lambda = 0.0, tol;
+  size_t i, n_net = pls_network_node_count (l.net);
+  int c, brute = 0;
+
+  pls_transient_options_init (&o);
+  r = run (l.net, &o);
+  ck_assert (pls_cycle_result_periodic (r));
+
+  ck_assert_msg (pls__transient_start (l.net, &o, &m, &err) == PLS_OK, "%s", err.message);
+  pprev = calloc (m->n_nodes, sizeof *pprev);
+  ck_assert_ptr_nonnull (pprev);
+  memset (&s, 0, sizeof s);
+  s.kind = PLS__SCHED_FIRING;
+  s.period = 1.0 / o.cycle_rate;
+  s.on_time = o.on_time;
+  s.open_ramp = o.open_ramp;
+  s.close_ramp = o.close_ramp;
+  s.delay = NULL;
+  /* The step rules of the cycle run (pls-cycle.c). */
+  m->tol.h_max = s.period / 20.0;
+  m->tol.h_min = 1e-10 * s.period;
+  for (i = 0; i < n_net; i++)
+    pref = fmax (pref, fabs (m->p[i]));
+  /* Three decades past the periodicity tolerance: what is left of the
+   * reference's own distance to the fixed point is then negligible. */
+  for (c = 1; c <= 3000 && change > 1e-3 * o.periodic_tolerance; c++)
+    {
+      memcpy (pprev, m->p, m->n_nodes * sizeof *pprev);
+      ck_assert_msg (pls__integrate (m, &s, t, t + s.period, NULL, NULL, &err) == PLS_OK,
+                     "%s", err.message);
+      t += s.period;
+      last = change;
+      change = 0.0;
+      for (i = 0; i < m->n_nodes; i++)
+        if (!m->nodes[i].fixed)
+          change = fmax (change, fabs (m->p[i] - pprev[i]) / pref);
+      if (c > 1 && last > 0.0)
+        lambda = change / last;
+      brute = c;
+    }
+  ck_assert_double_lt (change, 1e-3 * o.periodic_tolerance);
+  /* The reported cycle starts from x with |F(x) - x| < tol pref; for a
+   * contraction whose slowest mode decays by lambda a cycle the distance
+   * to the fixed point is |x - x*| <~ |F(x) - x| / (1 - lambda) (the
+   * geometric series of the remaining changes).  lambda is measured on
+   * the reference's last cycles (its ratio of successive changes). */
+  ck_assert_double_gt (lambda, 0.0);
+  ck_assert_double_lt (lambda, 1.0);
+  tol = o.periodic_tolerance * pref / (1.0 - lambda);
+  for (i = 0; i < n_net; i++)
+    ck_assert_double_eq_tol (pls_cycle_sample_pressure (r, (int) i, 0), m->p[i], tol);
+  /* The point of the extrapolation: far fewer cycles than repetition
+   * needs to reach the same tolerance. */
+  ck_assert_int_lt (pls_cycle_result_cycles (r), brute);
+  free (pprev);
+  pls__model_free (m);
+  pls_cycle_result_free (r);
+  pls_network_free (l.net);
+}
+END_TEST
+
+/* The integrator's law of a line segment for a power-law fluid (its
+ * laminar shortcut with the fluid's constants computed once) against the
+ * line law itself, pls_line_drop (the Rabinowitsch-Mooney closed form,
+ * Chhabra & Richardson, 2nd ed., eq. 3.9, checked in test-line.c; Dodge-
+ * Metzner above the Ryan-Johnson onset), times the segment's share of the
+ * length, over flows from creeping to turbulent and both directions.
+ * The shortcut repeats the law's operations in its order, so the values
+ * should be the same doubles; 1e-12 relative leaves room for a compiler
+ * that contracts a multiply-add differently in the two places.
+ * Fluids: flow index n, consistency K (Pa s^n). */
+static const struct
+{
+  double n, k;
+} segment_fluid[] = {
+  { 0.7, 2.0 },
+  { 0.4, 30.0 },
+  { 1.3, 0.5 },
+};
+
+START_TEST (test_segment_law_power_law)
+{
+  pls_fluid_params f;
+  pls_line_params hose = pls_test_hose (10.0, 6.35e-3);
+  pls__model_options mo;
+  pls__model *m = NULL;
+  pls_network *net;
+  pls_error err;
+  size_t k, j;
+  int a, b, checked = 0;
+
+  pls_fluid_params_init (&f);
+  f.law = PLS_VISCOSITY_POWER_LAW;
+  f.flow_index = segment_fluid[_i].n;
+  f.consistency = segment_fluid[_i].k;
+  net = pls_network_new (&f, NULL, NULL);
+  ck_assert_ptr_nonnull (net);
+  a = pls_network_add_fixed_node (net, 0.0, 1e6, "in", NULL);
+  b = pls_network_add_fixed_node (net, 0.0, 0.0, "out", NULL);
+  pls_network_add_line (net, a, b, &hose, "H1", NULL);
+  memset (&mo, 0, sizeof mo);
+  mo.t_event = 2e-3;
+  mo.per_wavelength = 13.0;
+  mo.min_segments = 1;
+  mo.max_segments = 8;
+  mo.air_on = 1;
+  ck_assert_msg (pls__model_new (net, &mo, &m, &err) == PLS_OK, "%s", err.message);
+  for (k = 0; k < m->n_links; k++)
+    {
+      const pls__tlink *l = &m->links[k];
+
+      if (l->kind != PLS__LINK_SEGMENT)
+        continue;
+      for (j = 0; j <= 40; j++)
+        {
+          /* 1e-12 .. 1e-2 m^3/s, both signs: creeping, laminar, turbulent. */
+          double q = (j % 2 ? -1.0 : 1.0) * pow (10.0, -12.0 + 10.0 * (double) j / 40.0);
+          pls_drop d, ref;
+
+          pls__link_law (m, k, q, &d);
+          pls_line_drop (&f, &hose, q, &ref, NULL);
+          ck_assert_double_eq_tol (d.h, l->scale * ref.h, 1e-12 * fabs (l->scale * ref.h));
+          ck_assert_double_eq_tol (d.dh_dq, l->scale * ref.dh_dq,
+                                   1e-12 * fabs (l->scale * ref.dh_dq));
+          checked++;
+        }
+    }
+  ck_assert_int_gt (checked, 0);
+  pls__model_free (m);
+  pls_network_free (net);
+}
+END_TEST
+
 static Suite *
 transient_cycle_suite (void)
 {
@@ -416,6 +574,10 @@ transient_cycle_suite (void)
   tcase_add_test (tc, test_findings);
   tcase_add_test (tc, test_max_rate);
   tcase_add_test (tc, test_changeover);
+  tcase_add_loop_test (tc, test_segment_law_power_law, 0,
+                       (int) (sizeof segment_fluid / sizeof segment_fluid[0]));
+  tcase_add_loop_test (tc, test_periodic_matches_brute_force, 0,
+                       (int) (sizeof periodic_case / sizeof periodic_case[0]));
   suite_add_tcase (s, tc);
   return s;
 }
