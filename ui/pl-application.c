@@ -7,6 +7,7 @@
 #include <glib/gi18n.h>
 
 #include "pl-resources.h"
+#include "pl-window-private.h"
 #include "pl-window.h"
 
 struct _PlApplication
@@ -55,8 +56,19 @@ pl_application_quit_action (GSimpleAction *action,
     }
 }
 
+static void
+pl_application_new_window_action (GSimpleAction *action,
+                                  GVariant      *parameter,
+                                  gpointer       user_data)
+{
+  PlWindow *window = pl_window_new (PL_APPLICATION (user_data));
+
+  gtk_window_present (GTK_WINDOW (window));
+}
+
 static const GActionEntry app_actions[] = {
   { "about", pl_application_about_action, NULL, NULL, NULL, { 0 } },
+  { "new-window", pl_application_new_window_action, NULL, NULL, NULL, { 0 } },
   { "quit", pl_application_quit_action, NULL, NULL, NULL, { 0 } },
 };
 
@@ -73,6 +85,7 @@ pl_application_startup (GApplication *app)
   g_action_map_add_action_entries (G_ACTION_MAP (app), app_actions,
                                    G_N_ELEMENTS (app_actions), app);
   gtk_application_set_accels_for_action (GTK_APPLICATION (app), "app.quit", quit_accels);
+  pl_window_set_accels (GTK_APPLICATION (app));
   gtk_window_set_default_icon_name (APP_ID);
 
   css = gtk_css_provider_new ();

@@ -54,7 +54,7 @@ START_TEST (test_window_opens_with_saved_size)
   gtk_window_get_default_size (GTK_WINDOW (window), &width, &height);
   ck_assert_int_eq (width, 900);
   ck_assert_int_eq (height, 640);
-  ck_assert_str_eq (gtk_window_get_title (GTK_WINDOW (window)), "Pressline");
+  ck_assert_str_eq (gtk_window_get_title (GTK_WINDOW (window)), "Untitled layout — Pressline");
 
   /* Closing saves the size back. */
   gtk_window_set_default_size (GTK_WINDOW (window), 1000, 700);
