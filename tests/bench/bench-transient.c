@@ -25,78 +25,7 @@
 #include "pls-transient-private.h"
 #include "../solver/test-transient-layouts.h"
 
-typedef struct
-{
-  size_t current, peak;
-} counter;
-
-#define HEADER 16
-
-static void *
-c_malloc (size_t size, void *data)
-{
-  counter *c = data;
-  unsigned char *p = malloc (size + HEADER);
-
-  if (p == NULL)
-    return NULL;
-  memcpy (p, &size, sizeof size);
-  c->current += size;
-  if (c->current > c->peak)
-    c->peak = c->current;
-  return p + HEADER;
-}
-
-static void
-c_free (void *ptr, void *data)
-{
-  counter *c = data;
-  unsigned char *p = ptr;
-  size_t size;
-
-  if (p == NULL)
-    return;
-  p -= HEADER;
-  memcpy (&size, p, sizeof size);
-  c->current -= size;
-  free (p);
-}
-
-static void *
-c_calloc (size_t count, size_t size, void *data)
-{
-  void *p = c_malloc (count * size, data);
-
-  if (p != NULL)
-    memset (p, 0, count * size);
-  return p;
-}
-
-static void *
-c_realloc (void *ptr, size_t size, void *data)
-{
-  unsigned char *p = ptr, *q;
-  size_t old;
-
-  if (p == NULL)
-    return c_malloc (size, data);
-  memcpy (&old, p - HEADER, sizeof old);
-  q = c_malloc (size, data);
-  if (q == NULL)
-    return NULL;
-  memcpy (q, p, old < size ? old : size);
-  c_free (p, data);
-  return q;
-}
-
-static double
-now (void)
-{
-  struct timespec ts;
-
-  clock_gettime (CLOCK_MONOTONIC, &ts);
-  return (double) ts.tv_sec + 1e-9 * (double) ts.tv_nsec;
-}
+#include "bench-common.h"
 
 static void
 row (const char *what, int n, size_t parts, double ms, const pls_transient_stats *st,
