@@ -68,9 +68,9 @@ pls_transient_options_init (pls_transient_options *o)
   o->shutdown_time = 600.0;
 }
 
-pls_status
-pls__transient_check (const pls_network *net, const pls_transient_options *o, int cycle,
-                      pls_error *err)
+static pls_status
+pls_transient_check (const pls_network *net, const pls_transient_options *o, int cycle,
+                     pls_error *err)
 {
   const struct
   {
@@ -139,6 +139,22 @@ pls__transient_check (const pls_network *net, const pls_transient_options *o, in
                            "close_ramp must end within the cycle (%g s)", label, d, period);
     }
   return PLS_OK;
+}
+
+pls_status
+pls__transient_options (const pls_network *net, const pls_transient_options *options,
+                        pls_transient_options *defaults, int cycle,
+                        const pls_transient_options **o, pls_error *err)
+{
+  if (net == NULL)
+    return pls__error (err, PLS_ERR_INVALID, -1, -1, "no network given");
+  if (options == NULL)
+    {
+      pls_transient_options_init (defaults);
+      options = defaults;
+    }
+  *o = options;
+  return pls_transient_check (net, options, cycle, err);
 }
 
 double
@@ -816,14 +832,7 @@ pls_solve_cycle (const pls_network *net, const pls_transient_options *options,
   if (out == NULL)
     return pls__error (err, PLS_ERR_INVALID, -1, -1, "no place given for the result");
   *out = NULL;
-  if (net == NULL)
-    return pls__error (err, PLS_ERR_INVALID, -1, -1, "no network given");
-  if (o == NULL)
-    {
-      pls_transient_options_init (&defaults);
-      o = &defaults;
-    }
-  st = pls__transient_check (net, o, 1, err);
+  st = pls__transient_options (net, options, &defaults, 1, &o, err);
   if (st != PLS_OK)
     return st;
   r = pls_cycle_result_new (net, (size_t) o->samples);

@@ -169,14 +169,7 @@ pls_solve_shutdown (const pls_network *net, const pls_transient_options *options
   if (out == NULL)
     return pls__error (err, PLS_ERR_INVALID, -1, -1, "no place given for the result");
   *out = NULL;
-  if (net == NULL)
-    return pls__error (err, PLS_ERR_INVALID, -1, -1, "no network given");
-  if (o == NULL)
-    {
-      pls_transient_options_init (&defaults);
-      o = &defaults;
-    }
-  st = pls__transient_check (net, o, 0, err);
+  st = pls__transient_options (net, options, &defaults, 0, &o, err);
   if (st != PLS_OK)
     return st;
   a = &net->alloc;

@@ -233,10 +233,14 @@ void pls__link_law (const pls__model *m, size_t k, double q, pls_drop *d);
 
 /* ---- shared by the cycle and the shutdown (pls-cycle.c) ----------------- */
 
-/* Checks the options against the network (cycle = 1: the firing schedule
- * too); err names the option or part at fault. */
-pls_status pls__transient_check (const pls_network *net, const pls_transient_options *o,
-                                 int cycle, pls_error *err);
+/* The options a run uses: the caller's, or the defaults (written into
+ * *defaults) when options is NULL, set in *o; checked against the network
+ * (cycle = 1: the firing schedule too).  err names the option or part at
+ * fault; a NULL network is refused. */
+pls_status pls__transient_options (const pls_network *net,
+                                   const pls_transient_options *options,
+                                   pls_transient_options *defaults, int cycle,
+                                   const pls_transient_options **o, pls_error *err);
 /* Builds the model for the options and brings it to the idle state (air
  * on, every applicator shut): seeded by the steady solve where it has a
  * result, then settled on the lumped model itself. */
