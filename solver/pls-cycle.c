@@ -32,6 +32,7 @@ struct pls_cycle_result
   double *pmin, *pmax, *pmean, *pidle, *recovery; /* n_nodes                  */
   size_t samples;
   double *series;                 /* n_nodes x samples, node-major            */
+  double *flow_series;            /* n_elements x samples, element-major      */
   double *shot, *shot_dev, *first_shot;           /* n_elements (kg, -, kg)   */
   pls_cycle_accumulator *acc;     /* n_elements                               */
   pls_cycle_pump *pump;           /* n_elements                               */
@@ -260,6 +261,8 @@ pls_tracker_reset (pls_tracker *tr, pls__model *m, double t_start)
       r->series[i * r->samples] = m->p[i];
     }
   for (k = 0; k < r->n_elements; k++)
+    r->flow_series[k * r->samples] = m->elem_link[k] >= 0 ? m->q[m->elem_link[k]] : 0.0;
+  for (k = 0; k < r->n_elements; k++)
     {
       const pls_element *e = &net->elements[k];
 
@@ -336,6 +339,13 @@ pls_track_step (void *user_data, pls__model *m, double t0, double tg, double t1)
       for (i = 0; i < r->n_nodes; i++)
         r->series[i * r->samples + tr->next_sample]
           = pls_quad (t0, tg, t1, m->p0[i], m->pg[i], m->p[i], fmin (ts, t1));
+      for (k = 0; k < r->n_elements; k++)
+        {
+          int l = m->elem_link[k];
+
+          r->flow_series[k * r->samples + tr->next_sample]
+            = l < 0 ? 0.0 : pls_quad (t0, tg, t1, m->q0[l], m->qg[l], m->q[l], fmin (ts, t1));
+        }
       tr->next_sample++;
     }
   for (k = 0; k < r->n_elements; k++)
@@ -387,13 +397,14 @@ pls_cycle_result_new (const pls_network *net, size_t samples)
   r->pidle = pls__calloc (a, n, sizeof (double));
   r->recovery = pls__calloc (a, n, sizeof (double));
   r->series = pls__calloc (a, n * samples, sizeof (double));
+  r->flow_series = pls__calloc (a, e * samples, sizeof (double));
   r->shot = pls__calloc (a, e, sizeof (double));
   r->shot_dev = pls__calloc (a, e, sizeof (double));
   r->first_shot = pls__calloc (a, e, sizeof (double));
   r->acc = pls__calloc (a, e, sizeof *r->acc);
   r->pump = pls__calloc (a, e, sizeof *r->pump);
   if (!r->segments || !r->pmin || !r->pmax || !r->pmean || !r->pidle || !r->recovery
-      || !r->series || !r->shot || !r->shot_dev || !r->first_shot || !r->acc || !r->pump)
+      || !r->series || !r->flow_series || !r->shot || !r->shot_dev || !r->first_shot || !r->acc || !r->pump)
     {
       pls_cycle_result_free (r);
       return NULL;
@@ -416,6 +427,7 @@ pls_cycle_result_free (pls_cycle_result *r)
   pls__free (&a, r->pidle);
   pls__free (&a, r->recovery);
   pls__free (&a, r->series);
+  pls__free (&a, r->flow_series);
   pls__free (&a, r->shot);
   pls__free (&a, r->shot_dev);
   pls__free (&a, r->first_shot);
@@ -947,6 +959,14 @@ pls_cycle_sample_pressure (const pls_cycle_result *r, int node, size_t i)
   if (!NODE_OK (r, node) || i >= r->samples)
     return 0.0;
   return r->series[(size_t) node * r->samples + i];
+}
+
+double
+pls_cycle_sample_flow (const pls_cycle_result *r, int element, size_t i)
+{
+  if (!ELEM_OK (r, element) || i >= r->samples)
+    return 0.0;
+  return r->flow_series[(size_t) element * r->samples + i];
 }
 
 double

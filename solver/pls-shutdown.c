@@ -27,7 +27,7 @@
 struct pls_shutdown_result
 {
   pls_allocator alloc;
-  size_t n_nodes;
+  size_t n_nodes, n_elements;
   pls_transient_stats stats;
   double safe_time, gas_energy, fluid_energy;
   double *node_safe;              /* n_nodes                               */
@@ -35,6 +35,7 @@ struct pls_shutdown_result
   size_t samples;
   double *times;                  /* samples                               */
   double *series;                 /* n_nodes x samples, node-major         */
+  double *flow_series;            /* n_elements x samples, element-major   */
   pls_finding_list findings;
 };
 
@@ -47,16 +48,18 @@ typedef struct
   double safe;
   /* every accepted step's end, for the series */
   double *t;      /* cap */
-  double *p;      /* cap x n_nodes */
+  double *p;      /* cap x (n_nodes + n_elements): pressures, then flows */
   size_t count, cap;
 } pls_decay;
 
-/* Appends the model's network-node pressures at time t to the record. */
+/* Appends the model's network-node pressures and element flows at time t
+ * to the record. */
 static pls_status
 pls_decay_push (pls_decay *d, const pls__model *m, double t)
 {
   const pls_allocator *a = &d->r->alloc;
-  size_t n = d->r->n_nodes;
+  size_t n = d->r->n_nodes + d->r->n_elements, k;
+  double *row;
 
   if (d->count == d->cap)
     {
@@ -74,7 +77,10 @@ pls_decay_push (pls_decay *d, const pls__model *m, double t)
       d->cap = cap;
     }
   d->t[d->count] = t;
-  memcpy (d->p + d->count * n, m->p, n * sizeof *m->p);
+  row = d->p + d->count * n;
+  memcpy (row, m->p, d->r->n_nodes * sizeof *m->p);
+  for (k = 0; k < d->r->n_elements; k++)
+    row[d->r->n_nodes + k] = m->elem_link[k] >= 0 ? m->q[m->elem_link[k]] : 0.0;
   d->count++;
   return PLS_OK;
 }
@@ -143,6 +149,7 @@ pls_shutdown_result_free (pls_shutdown_result *r)
   pls__free (&a, r->trapped);
   pls__free (&a, r->times);
   pls__free (&a, r->series);
+  pls__free (&a, r->flow_series);
   pls__free (&a, r->findings.items);
   pls__free (&a, r);
 }
@@ -179,6 +186,7 @@ pls_solve_shutdown (const pls_network *net, const pls_transient_options *options
     return pls__error (err, PLS_ERR_NOMEM, -1, -1, "out of memory in the shutdown run");
   r->alloc = net->alloc;
   r->n_nodes = n;
+  r->n_elements = net->n_elements;
   r->safe_time = -1.0;
   r->node_safe = pls__calloc (a, n, sizeof (double));
   r->trapped = pls__calloc (a, n, 1);
@@ -276,11 +284,12 @@ pls_solve_shutdown (const pls_network *net, const pls_transient_options *options
   r->samples = PLS_SHUTDOWN_SAMPLES;
   r->times = pls__calloc (a, r->samples, sizeof (double));
   r->series = pls__calloc (a, r->samples * n, sizeof (double));
-  if (!r->times || !r->series)
+  r->flow_series = pls__calloc (a, r->samples * r->n_elements, sizeof (double));
+  if (!r->times || !r->series || !r->flow_series)
     goto nomem;
   {
     double t_end = d.t[d.count - 1];
-    size_t s, j = 1;
+    size_t s, j = 1, w = n + r->n_elements;
 
     for (s = 0; s < r->samples; s++)
       {
@@ -289,7 +298,7 @@ pls_solve_shutdown (const pls_network *net, const pls_transient_options *options
         r->times[s] = ts;
         while (j < d.count - 1 && d.t[j] < ts)
           j++;
-        for (i = 0; i < n; i++)
+        for (i = 0; i < w; i++)
           {
             double v = d.p[i];
 
@@ -297,9 +306,12 @@ pls_solve_shutdown (const pls_network *net, const pls_transient_options *options
               {
                 double ta = d.t[j - 1], tb = d.t[j], u = (ts - ta) / (tb - ta);
 
-                v = d.p[(j - 1) * n + i] + u * (d.p[j * n + i] - d.p[(j - 1) * n + i]);
+                v = d.p[(j - 1) * w + i] + u * (d.p[j * w + i] - d.p[(j - 1) * w + i]);
               }
-            r->series[i * r->samples + s] = v;
+            if (i < n)
+              r->series[i * r->samples + s] = v;
+            else
+              r->flow_series[(i - n) * r->samples + s] = v;
           }
       }
   }
@@ -388,6 +400,14 @@ pls_shutdown_sample_pressure (const pls_shutdown_result *r, int node, size_t i)
   if (r == NULL || node < 0 || (size_t) node >= r->n_nodes || i >= r->samples)
     return 0.0;
   return r->series[(size_t) node * r->samples + i];
+}
+
+double
+pls_shutdown_sample_flow (const pls_shutdown_result *r, int element, size_t i)
+{
+  if (r == NULL || element < 0 || (size_t) element >= r->n_elements || i >= r->samples)
+    return 0.0;
+  return r->flow_series[(size_t) element * r->samples + i];
 }
 
 size_t

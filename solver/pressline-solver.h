@@ -594,6 +594,10 @@ double pls_cycle_node_recovery (const pls_cycle_result *r, int node);
 size_t pls_cycle_sample_count (const pls_cycle_result *r);
 double pls_cycle_sample_time (const pls_cycle_result *r, size_t i);         /* s  */
 double pls_cycle_sample_pressure (const pls_cycle_result *r, int node, size_t i); /* Pa */
+/* Flow of an element at sample i (m^3/s), in the sign of the steady
+ * result's flow (from its port a to port b; an applicator: out of the
+ * line); a line's at its port a end.  0 for elements without flow. */
+double pls_cycle_sample_flow (const pls_cycle_result *r, int element, size_t i);
 
 /* Applicators: mass per shot (kg) in the last cycle, its relative deviation
  * from the mean of all applicators, and the mass of the first shot from
@@ -664,6 +668,8 @@ double pls_shutdown_fluid_energy (const pls_shutdown_result *r);
 size_t pls_shutdown_sample_count (const pls_shutdown_result *r);
 double pls_shutdown_sample_time (const pls_shutdown_result *r, size_t i);
 double pls_shutdown_sample_pressure (const pls_shutdown_result *r, int node, size_t i);
+/* Flow of an element at sample i (m^3/s), signed as pls_cycle_sample_flow. */
+double pls_shutdown_sample_flow (const pls_shutdown_result *r, int element, size_t i);
 /* Findings: "trapped-pressure" (error: a volume that stays above the safe
  * pressure behind a closed valve or check valve), "shutdown-slow"
  * (warning: not safe within shutdown_time). */
