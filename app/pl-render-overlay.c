@@ -15,38 +15,25 @@
 #include <glib/gi18n.h>
 #include <math.h>
 
-/* Pressure at a port at the replay instant: linear interpolation in the
- * last cycle's evenly spaced samples (pressline-solver.h: sample i at
- * i * period / (samples - 1)); the time wraps round the cycle. */
 static gboolean
-replay_pressure (PlRenderCtx *ctx, const char *part_id, const char *port_key, double *out)
+replaying (PlRenderCtx *ctx)
 {
-  const pls_cycle_result *cy = pl_results_get_cycle (ctx->results);
-  size_t n;
-  int node;
-  double period, t, idx, f, p0, p1;
-  size_t i;
+  return isfinite (ctx->opts->replay_time);
+}
 
-  if (cy == NULL || (n = pls_cycle_sample_count (cy)) < 2)
-    return FALSE;
-  node = pl_compiled_get_port_node (pl_results_get_compiled (ctx->results), part_id, port_key);
-  if (node < 0)
-    return FALSE;
-  period = pls_cycle_sample_time (cy, n - 1);
-  if (!(isfinite (period) && period > 0.0))
-    return FALSE;
-  t = fmod (ctx->opts->replay_time, period);
-  if (t < 0.0)
-    t += period;
-  idx = t / period * (double) (n - 1);
-  i = MIN ((size_t) idx, n - 2);
-  f = idx - (double) i;
-  p0 = pls_cycle_sample_pressure (cy, node, i);
-  p1 = pls_cycle_sample_pressure (cy, node, i + 1);
-  if (!(isfinite (p0) && isfinite (p1)))
-    return FALSE;
-  *out = p0 + f * (p1 - p0);
-  return TRUE;
+/* Flow of a part's element at the replay instant when there is one, else
+ * in the steady case the pressure kind names. */
+static gboolean
+part_flow (PlRenderCtx *ctx, const char *part_id, guint slot, double *out)
+{
+  PlSteadyCase c = ctx->opts->pressure_kind == PL_PRESSURE_IDLE ? PL_CASE_IDLE
+                                                                : PL_CASE_STEADY_OPEN;
+
+  if (replaying (ctx)
+      && pl_results_get_flow_at (ctx->results, part_id, slot, ctx->opts->replay_run,
+                                 ctx->opts->replay_time, out))
+    return TRUE;
+  return pl_results_get_flow (ctx->results, part_id, slot, c, out);
 }
 
 gboolean
@@ -57,7 +44,9 @@ pl_render_port_pressure (PlRenderCtx *ctx, const char *part_id, const char *port
 
   if (ctx->results == NULL)
     return FALSE;
-  if (isfinite (ctx->opts->replay_time) && replay_pressure (ctx, part_id, port_key, out))
+  if (replaying (ctx)
+      && pl_results_get_port_pressure_at (ctx->results, part_id, port_key,
+                                          ctx->opts->replay_run, ctx->opts->replay_time, out))
     return TRUE;
   if (!pl_results_get_port_pressure (ctx->results, part_id, port_key,
                                      ctx->opts->pressure_kind, &p) || !isfinite (p))
@@ -71,10 +60,11 @@ pl_render_overlay_prepare (PlRenderCtx *ctx)
 {
   const PlRenderOptions *o = ctx->opts;
   double lo = 0.0, hi = -INFINITY;
-  /* With a replay the ramp spans the whole cycle, so colours do not
-   * rescale as the instant moves. */
-  PlPressureKind kind = isfinite (o->replay_time) && pl_results_get_cycle (ctx->results)
-                        ? PL_PRESSURE_CYCLE_MAX : o->pressure_kind;
+  /* With a replay the ramp spans the whole cycle and the idle pressure the
+   * shutdown starts from, so colours do not rescale as the instant moves
+   * nor when the replay goes from one run to the other. */
+  gboolean over_runs = replaying (ctx) && pl_results_get_cycle (ctx->results) != NULL;
+  PlPressureKind kind = over_runs ? PL_PRESSURE_CYCLE_MAX : o->pressure_kind;
   const PlPart *scenario = pl_document_get_scenario (ctx->doc);
 
   ctx->uniformity = pl_part_get_number (scenario, "uniformity-tolerance");
@@ -95,6 +85,11 @@ pl_render_overlay_prepare (PlRenderCtx *ctx)
               hi = MAX (hi, p);
               lo = MIN (lo, p);
             }
+          if (over_runs
+              && pl_results_get_port_pressure (ctx->results, pl_part_get_id (part),
+                                               type->ports[k].key, PL_PRESSURE_IDLE, &p)
+              && isfinite (p))
+            hi = MAX (hi, p);
         }
     }
   if (isfinite (o->pressure_max) && o->pressure_max > 0.0)
@@ -143,8 +138,7 @@ pl_render_port_outflow (PlRenderCtx *ctx, const PlPart *part, const char *port_k
                         double *out)
 {
   const PlPartType *type = pl_part_get_part_type (part);
-  PlSteadyCase c = ctx->opts->pressure_kind == PL_PRESSURE_IDLE ? PL_CASE_IDLE
-                                                                : PL_CASE_STEADY_OPEN;
+  const char *id = pl_part_get_id (part);
   guint index = 0;
   double q;
 
@@ -154,7 +148,7 @@ pl_render_port_outflow (PlRenderCtx *ctx, const PlPart *part, const char *port_k
   switch (type->kind)
     {
     case PL_PART_PUMP:
-      if (!pl_results_get_flow (ctx->results, pl_part_get_id (part), 0, c, &q))
+      if (!part_flow (ctx, id, 0, &q))
         return FALSE;
       *out = q;                              /* delivered out of "out" */
       return TRUE;
@@ -162,17 +156,17 @@ pl_render_port_outflow (PlRenderCtx *ctx, const PlPart *part, const char *port_k
     case PL_PART_PIPE:
     case PL_PART_BALL_VALVE:
     case PL_PART_DUMP_VALVE:
-      if (!pl_results_get_flow (ctx->results, pl_part_get_id (part), 0, c, &q))
+      if (!part_flow (ctx, id, 0, &q))
         return FALSE;
       *out = index == 0 ? -q : q;            /* port 0 -> port 1 */
       return TRUE;
     case PL_PART_TEE:
-      if (!pl_results_get_flow (ctx->results, pl_part_get_id (part), index, c, &q))
+      if (!part_flow (ctx, id, index, &q))
         return FALSE;
       *out = q;                              /* centre outwards */
       return TRUE;
     case PL_PART_APPLICATOR:
-      if (!pl_results_get_flow (ctx->results, pl_part_get_id (part), 0, c, &q))
+      if (!part_flow (ctx, id, 0, &q))
         return FALSE;
       *out = -q;                             /* out of the line, into the nozzle */
       return TRUE;
@@ -193,7 +187,7 @@ pl_render_symbol_state (PlRenderCtx *ctx, const PlPart *part, PlSymbolState *s)
   const PlPartType *type = pl_part_get_part_type (part);
   double p;
 
-  *s = (PlSymbolState) { .flow = NAN, .gauge_fraction = NAN };
+  *s = (PlSymbolState) { .flow = NAN, .gauge_fraction = NAN, .jet = NAN };
   if (ctx->results == NULL)
     return;
   if (type->n_ports > 0
@@ -217,12 +211,21 @@ pl_render_symbol_state (PlRenderCtx *ctx, const PlPart *part, PlSymbolState *s)
   if (type->kind == PL_PART_HOSE || type->kind == PL_PART_PIPE
       || type->kind == PL_PART_BALL_VALVE || type->kind == PL_PART_DUMP_VALVE)
     {
-      PlSteadyCase c = ctx->opts->pressure_kind == PL_PRESSURE_IDLE ? PL_CASE_IDLE
-                                                                    : PL_CASE_STEADY_OPEN;
       double q;
 
-      if (pl_results_get_flow (ctx->results, pl_part_get_id (part), 0, c, &q))
+      if (part_flow (ctx, pl_part_get_id (part), 0, &q))
         s->flow = q;
+    }
+  else if (type->kind == PL_PART_APPLICATOR && replaying (ctx))
+    {
+      double q, q_open;
+
+      /* The jet against the applicator's own steady-open flow: full when
+       * it sprays as if held open, none while it is shut. */
+      if (part_flow (ctx, pl_part_get_id (part), 0, &q)
+          && pl_results_get_flow (ctx->results, pl_part_get_id (part), 0, PL_CASE_STEADY_OPEN,
+                                  &q_open) && q_open > 0.0)
+        s->jet = MAX (q, 0.0) / q_open;
     }
 }
 

@@ -66,6 +66,8 @@ typedef struct
   PlColor color_a, color_b;    /* their ramp colours */
   double flow;                 /* port 0 -> port 1 flow (m^3/s), or NaN */
   double gauge_fraction;       /* reading / full scale, or NaN */
+  double jet;                  /* applicator in a replay: flow at the instant
+                                * over its steady-open flow; NaN otherwise */
 } PlSymbolState;
 
 void pl_render_symbol (PlRenderCtx *ctx, const PlPartType *type, const PlPart *part,

@@ -362,6 +362,28 @@ draw_applicator (PlRenderCtx *ctx, const PlSymbolState *s)
   fluid_source (ctx, s, -5.5, 5.5);
   cairo_fill_preserve (cr);
   ink (ctx);
+  if (isfinite (s->jet))
+    {
+      /* In a replay the jet shows the flow at the instant: a fan whose
+       * reach and width grow with the flow over the steady-open flow
+       * (full at 1), nothing while the valve is shut; it stays inside the
+       * symbol's box, where the static jet is drawn. */
+      double k = MIN (s->jet, 1.0), reach = 12.0 * k, half = 4.0 * k;
+
+      if (k >= 0.02)
+        {
+          cairo_move_to (cr, -0.8, 6);
+          cairo_line_to (cr, -0.8 - half, 7 + reach);
+          cairo_line_to (cr, 0.8 + half, 7 + reach);
+          cairo_line_to (cr, 0.8, 6);
+          cairo_close_path (cr);
+          fluid_source (ctx, s, -half, half);
+          cairo_fill_preserve (cr);
+          ink (ctx);
+        }
+      cairo_set_line_width (cr, pl_render_line_width (ctx, PL_RENDER_INK_MM));
+      return;
+    }
   /* The jet: short dashes fanning out below the tip. */
   cairo_set_dash (cr, dash, 2, 0);
   cairo_set_line_width (cr, pl_render_line_width (ctx, 0.6));
@@ -640,7 +662,7 @@ gboolean
 pl_render_type_icon (cairo_t *cr, const PlPartType *type, double size, PlRenderStyle style)
 {
   PlRenderCtx ctx = { 0 };
-  PlSymbolState state = { .flow = NAN, .gauge_fraction = NAN };
+  PlSymbolState state = { .flow = NAN, .gauge_fraction = NAN, .jet = NAN };
   double extent, s, dx = 1.0, dy = 0.0;
 
   g_return_val_if_fail (cr != NULL && type != NULL, FALSE);

@@ -30,6 +30,7 @@
 #include "pl-document.h"
 #include "pl-palette.h"
 #include "pl-results.h"
+#include "pl-results-series.h"
 #include "pl-units.h"
 #include "pl-viewport.h"
 
@@ -69,10 +70,12 @@ typedef struct
   gboolean results_stale;            /* the caller knows the results are old */
   PlPressureKind pressure_kind;      /* which pressure colours the lines and
                                       * fills the labels */
-  double replay_time;                /* a time within the firing cycle (s):
-                                      * pressures at that instant when the
-                                      * cycle has run, else pressure_kind;
-                                      * NaN for none */
+  double replay_time;                /* a time within the replayed run (s):
+                                      * pressures and flows at that instant
+                                      * when the run has run, else
+                                      * pressure_kind; NaN for none */
+  PlRun replay_run;                  /* which run replay_time is in: the
+                                      * firing cycle (wraps) or the shutdown */
   double pressure_max;               /* top of the ramp (Pa); <= 0 or NaN:
                                       * the highest pressure drawn */
 } PlRenderOptions;

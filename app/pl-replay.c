@@ -11,9 +11,9 @@
 const double pl_replay_speeds[PL_REPLAY_N_SPEEDS] = { 0.01, 0.05, 0.2, 1.0 };
 
 static gboolean
-valid_run (PlReplayRun run)
+valid_run (PlRun run)
 {
-  return run >= PL_REPLAY_CYCLE && run < PL_N_REPLAY_RUNS;
+  return run >= PL_RUN_CYCLE && run < PL_N_RUNS;
 }
 
 /* The position after wall time now, wrapped or clamped into the run. */
@@ -27,7 +27,7 @@ position_at (const PlReplay *r, gint64 now, gboolean *ended)
     pos += (double) (now - r->anchor_time) * 1e-6 * r->speed;
   if (!(len > 0.0))
     return 0.0;
-  if (r->run == PL_REPLAY_CYCLE)
+  if (r->run == PL_RUN_CYCLE)
     {
       pos = fmod (pos, len);
       return pos < 0.0 ? pos + len : pos;
@@ -52,11 +52,11 @@ void
 pl_replay_init (PlReplay *replay)
 {
   g_return_if_fail (replay != NULL);
-  *replay = (PlReplay) { .run = PL_REPLAY_CYCLE, .speed = 0.05 };
+  *replay = (PlReplay) { .run = PL_RUN_CYCLE, .speed = 0.05 };
 }
 
 gboolean
-pl_replay_set_duration (PlReplay *replay, PlReplayRun run, double seconds, gint64 now)
+pl_replay_set_duration (PlReplay *replay, PlRun run, double seconds, gint64 now)
 {
   gboolean ended;
 
@@ -74,19 +74,15 @@ pl_replay_set_duration (PlReplay *replay, PlReplayRun run, double seconds, gint6
 void
 pl_replay_set_results (PlReplay *replay, PlResults *results, gint64 now)
 {
-  const pls_cycle_result *cy = results != NULL ? pl_results_get_cycle (results) : NULL;
-  const pls_shutdown_result *sd = results != NULL ? pl_results_get_shutdown (results) : NULL;
-  size_t n;
-  double cycle = 0.0, shutdown = 0.0;
-
   g_return_if_fail (replay != NULL);
-  if (cy != NULL && (n = pls_cycle_sample_count (cy)) >= 2)
-    cycle = pls_cycle_sample_time (cy, n - 1);
-  if (sd != NULL && (n = pls_shutdown_sample_count (sd)) >= 2)
-    shutdown = pls_shutdown_sample_time (sd, n - 1);
-  pl_replay_set_duration (replay, PL_REPLAY_CYCLE, isfinite (cycle) ? cycle : 0.0, now);
-  pl_replay_set_duration (replay, PL_REPLAY_SHUTDOWN, isfinite (shutdown) ? shutdown : 0.0,
-                          now);
+  for (PlRun run = PL_RUN_CYCLE; run < PL_N_RUNS; run++)
+    {
+      double length = 0.0;
+
+      if (results == NULL || !pl_results_get_run_length (results, run, &length))
+        length = 0.0;
+      pl_replay_set_duration (replay, run, length, now);
+    }
 }
 
 double
@@ -97,7 +93,7 @@ pl_replay_get_duration (const PlReplay *replay)
 }
 
 gboolean
-pl_replay_set_run (PlReplay *replay, PlReplayRun run, gint64 now)
+pl_replay_set_run (PlReplay *replay, PlRun run, gint64 now)
 {
   g_return_val_if_fail (replay != NULL, FALSE);
   if (!valid_run (run))
@@ -130,7 +126,7 @@ pl_replay_play (PlReplay *replay, gint64 now)
     return FALSE;
   pos = pl_replay_update (replay, now);
   /* A shutdown that has run its course plays again from the air going off. */
-  if (replay->run == PL_REPLAY_SHUTDOWN && pos >= replay->duration[replay->run])
+  if (replay->run == PL_RUN_SHUTDOWN && pos >= replay->duration[replay->run])
     pos = 0.0;
   anchor (replay, pos, now);
   replay->playing = TRUE;

@@ -19,16 +19,9 @@
 
 #include <glib.h>
 
-#include "pl-results.h"
+#include "pl-results-series.h"
 
 G_BEGIN_DECLS
-
-typedef enum
-{
-  PL_REPLAY_CYCLE,      /* the last firing cycle, periodic: loops */
-  PL_REPLAY_SHUTDOWN,   /* from the air going off: stops at the end */
-  PL_N_REPLAY_RUNS
-} PlReplayRun;
 
 /* The speeds offered to a class: simulated seconds per wall second. */
 #define PL_REPLAY_N_SPEEDS 4
@@ -36,8 +29,8 @@ extern const double pl_replay_speeds[PL_REPLAY_N_SPEEDS];   /* 1/100, 1/20, 1/5,
 
 typedef struct
 {
-  PlReplayRun run;
-  double duration[PL_N_REPLAY_RUNS];  /* length of each run (s), 0: none */
+  PlRun run;
+  double duration[PL_N_RUNS];  /* length of each run (s), 0: none */
   double speed;                       /* > 0 */
   gboolean playing;
   double anchor_position;             /* position at anchor_time */
@@ -52,12 +45,12 @@ void pl_replay_init (PlReplay *replay);
  * sampled length (0 for a run that has not run).  Keeps the run, speed and
  * playing state; the position is clamped into the new length. */
 void pl_replay_set_results (PlReplay *replay, PlResults *results, gint64 now);
-gboolean pl_replay_set_duration (PlReplay *replay, PlReplayRun run, double seconds,
+gboolean pl_replay_set_duration (PlReplay *replay, PlRun run, double seconds,
                                  gint64 now);
 double pl_replay_get_duration (const PlReplay *replay);   /* of the current run */
 
 /* Switches run: position 0, playing state kept. */
-gboolean pl_replay_set_run (PlReplay *replay, PlReplayRun run, gint64 now);
+gboolean pl_replay_set_run (PlReplay *replay, PlRun run, gint64 now);
 /* A new speed from now on (the position does not jump). */
 gboolean pl_replay_set_speed (PlReplay *replay, double speed, gint64 now);
 

@@ -24,8 +24,8 @@ ready (void)
   PlReplay r;
 
   pl_replay_init (&r);
-  ck_assert (pl_replay_set_duration (&r, PL_REPLAY_CYCLE, 0.5, 0));
-  ck_assert (pl_replay_set_duration (&r, PL_REPLAY_SHUTDOWN, 3.0, 0));
+  ck_assert (pl_replay_set_duration (&r, PL_RUN_CYCLE, 0.5, 0));
+  ck_assert (pl_replay_set_duration (&r, PL_RUN_SHUTDOWN, 3.0, 0));
   return r;
 }
 
@@ -71,7 +71,7 @@ START_TEST (test_shutdown_ends)
 {
   PlReplay r = ready ();
 
-  ck_assert (pl_replay_set_run (&r, PL_REPLAY_SHUTDOWN, 0));
+  ck_assert (pl_replay_set_run (&r, PL_RUN_SHUTDOWN, 0));
   ck_assert_double_eq (pl_replay_get_duration (&r), 3.0);
   ck_assert (pl_replay_set_speed (&r, 1.0, 0));
   ck_assert (pl_replay_play (&r, 0));
@@ -82,7 +82,7 @@ START_TEST (test_shutdown_ends)
   ck_assert (pl_replay_play (&r, 9000000));
   ck_assert_double_eq_tol (pl_replay_update (&r, 9250000), 0.25, TOL);
   /* Back to the cycle: position 0, still playing. */
-  ck_assert (pl_replay_set_run (&r, PL_REPLAY_CYCLE, 9250000));
+  ck_assert (pl_replay_set_run (&r, PL_RUN_CYCLE, 9250000));
   ck_assert (pl_replay_is_playing (&r));
   ck_assert_double_eq_tol (pl_replay_update (&r, 9350000), 0.1, TOL);
 }
@@ -119,10 +119,10 @@ START_TEST (test_bad_input)
   ck_assert (!pl_replay_set_speed (&r, -1.0, 0));
   ck_assert (!pl_replay_set_speed (&r, NAN, 0));
   ck_assert_double_eq (r.speed, 0.05);
-  ck_assert (!pl_replay_set_duration (&r, PL_REPLAY_CYCLE, NAN, 0));
-  ck_assert (!pl_replay_set_duration (&r, PL_REPLAY_CYCLE, -1.0, 0));
-  ck_assert (!pl_replay_set_duration (&r, PL_N_REPLAY_RUNS, 1.0, 0));
-  ck_assert (!pl_replay_set_run (&r, (PlReplayRun) 7, 0));
+  ck_assert (!pl_replay_set_duration (&r, PL_RUN_CYCLE, NAN, 0));
+  ck_assert (!pl_replay_set_duration (&r, PL_RUN_CYCLE, -1.0, 0));
+  ck_assert (!pl_replay_set_duration (&r, PL_N_RUNS, 1.0, 0));
+  ck_assert (!pl_replay_set_run (&r, (PlRun) 7, 0));
   ck_assert (!pl_replay_seek (&r, INFINITY, 0));
   ck_assert_double_eq (pl_replay_get_duration (&r), 0.5);
   /* Results gone: the run has no length, playing stops. */
