@@ -48,9 +48,12 @@ pl_render_line_width (PlRenderCtx *ctx, double mm)
 double
 pl_render_text_size (PlRenderCtx *ctx, double mm)
 {
-  if (mm * ctx->scale < PL_RENDER_HIDE_TEXT_PX)
+  double floor_px = ctx->opts->min_text_px > 0.0 ? ctx->opts->min_text_px
+                                                 : PL_RENDER_MIN_TEXT_PX;
+
+  if (mm * ctx->scale < PL_RENDER_HIDE_TEXT_PX && !(ctx->opts->min_text_px > 0.0))
     return 0.0;
-  return MAX (mm, PL_RENDER_MIN_TEXT_PX * ctx->px);
+  return MAX (mm, floor_px * ctx->px);
 }
 
 void

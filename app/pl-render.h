@@ -78,6 +78,9 @@ typedef struct
                                       * firing cycle (wraps) or the shutdown */
   double pressure_max;               /* top of the ramp (Pa); <= 0 or NaN:
                                       * the highest pressure drawn */
+  double min_text_px;                /* smallest text drawn (device px), for
+                                      * a screen read from afar; <= 0: the
+                                      * renderer's own floor */
 } PlRenderOptions;
 
 /* Light style, SI, background, grid and legend on, ports off, no

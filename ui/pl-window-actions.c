@@ -15,6 +15,8 @@
 
 #include "pl-window-private.h"
 
+#include "pl-presentation.h"
+
 /* One step of the zoom keys and menu items: five steps double the zoom
  * (1.25^3 = 1.95), a common practice in drawing programs, no source. */
 #define ZOOM_STEP 1.25
@@ -47,6 +49,16 @@ static void
 action_save_as (GtkWidget *widget, const char *name, GVariant *param)
 {
   pl_file_ops_save_as (PL_WINDOW (widget));
+}
+
+static void
+action_present (GtkWidget *widget, const char *name, GVariant *param)
+{
+  PlWindow *self = PL_WINDOW (widget);
+
+  gtk_window_present (GTK_WINDOW (pl_presentation_new (GTK_WINDOW (self), self->doc,
+                                                       self->undo, self->scheduler,
+                                                       &self->units, TRUE)));
 }
 
 static void
@@ -142,6 +154,7 @@ pl_window_class_install_actions (GtkWidgetClass *widget_class)
   gtk_widget_class_install_action (widget_class, "win.open-recent", "s", action_open_recent);
   gtk_widget_class_install_action (widget_class, "win.save", NULL, action_save);
   gtk_widget_class_install_action (widget_class, "win.save-as", NULL, action_save_as);
+  gtk_widget_class_install_action (widget_class, "win.present", NULL, action_present);
   gtk_widget_class_install_action (widget_class, "win.undo", NULL, action_undo);
   gtk_widget_class_install_action (widget_class, "win.redo", NULL, action_redo);
   gtk_widget_class_install_action (widget_class, "win.delete", NULL, action_delete);
@@ -175,6 +188,7 @@ pl_window_set_accels (GtkApplication *app)
     { "win.zoom-out", { "<Control>minus", "<Control>KP_Subtract", NULL } },
     { "win.zoom-reset", { "<Control>0", "<Control>KP_0", NULL } },
     { "win.show-help-overlay", { "<Control>question", NULL } },
+    { "win.present", { "F5", NULL } },
     { "app.new-window", { "<Control><Shift>n", NULL } },
   };
 

@@ -1,0 +1,465 @@
+/* SPDX-License-Identifier: GPL-3.0-or-later
+ *
+ * pl-what-if.c: sliders that edit the document through the undo stack.
+ */
+#include "config.h"
+
+#include "pl-what-if.h"
+
+#include <glib/gi18n.h>
+#include <math.h>
+
+#include "pl-command.h"
+#include "pl-part-type.h"
+
+typedef enum
+{
+  TARGET_HOSE,          /* the longest hose: the supply hose of a line */
+  TARGET_SCENARIO,
+  TARGET_ACCUMULATOR,   /* the first accumulator */
+} Target;
+
+/* The controls.  Ranges (SI) span what a class would try on a dispensing
+ * line, inside every parameter's own range (pl-part-types.c); the figures
+ * are the project's choice, no source.  Log sliders for quantities that
+ * are tried by factors rather than steps. */
+static const struct
+{
+  const char *key;
+  const char *label;
+  Target target;
+  const char *param;     /* NULL: the scenario's viscosity parameter of its law */
+  PlQuantity quantity;
+  double lo, hi;
+  gboolean log;
+} controls[] = {
+  { PL_WHAT_IF_HOSE_BORE, N_("Hose bore"), TARGET_HOSE, "bore", PL_QUANTITY_LENGTH,
+    3e-3, 25e-3, FALSE },
+  { PL_WHAT_IF_HOSE_LENGTH, N_("Hose length"), TARGET_HOSE, "length",
+    PL_QUANTITY_LINE_LENGTH, 0.5, 50.0, TRUE },
+  { PL_WHAT_IF_VISCOSITY, N_("Viscosity"), TARGET_SCENARIO, NULL, PL_QUANTITY_VISCOSITY,
+    0.01, 100.0, TRUE },
+  { PL_WHAT_IF_PRECHARGE, N_("Accumulator precharge"), TARGET_ACCUMULATOR, "precharge",
+    PL_QUANTITY_PRESSURE, 5e5, 3e7, TRUE },
+  { PL_WHAT_IF_AIR_PRESSURE, N_("Air pressure"), TARGET_SCENARIO, "air-pressure",
+    PL_QUANTITY_PRESSURE, 1e5, 8e5, FALSE },
+  { PL_WHAT_IF_ON_TIME, N_("On-time"), TARGET_SCENARIO, "on-time", PL_QUANTITY_TIME,
+    5e-3, 0.3, TRUE },
+};
+#define N_CONTROLS G_N_ELEMENTS (controls)
+
+struct _PlWhatIf
+{
+  GtkWidget parent_instance;
+
+  GtkWidget *grid;
+  GtkWidget *names[N_CONTROLS];
+  GtkRange *scales[N_CONTROLS];
+  GtkWidget *values[N_CONTROLS];
+  GtkSwitch *acc_switch;
+  GtkWidget *acc_name;
+  GtkWidget *message;
+
+  PlDocument *doc;
+  PlUndoStack *undo;
+  gulong changed_id;
+  PlUnitPrefs units;
+  gboolean refreshing;        /* setting sliders from the document */
+  gint64 last_change[N_CONTROLS];
+  /* The document as it was before this panel removed the accumulator, and
+   * that accumulator's id: what putting it back restores. */
+  PlDocument *before_removal;
+  char *removed_id;
+};
+
+G_DEFINE_FINAL_TYPE (PlWhatIf, pl_what_if, GTK_TYPE_WIDGET)
+
+static const PlPart *
+find_target (PlWhatIf *self, Target target)
+{
+  const PlPart *best = NULL;
+  double best_length = -1.0;
+
+  if (self->doc == NULL)
+    return NULL;
+  if (target == TARGET_SCENARIO)
+    return pl_document_get_scenario (self->doc);
+  for (guint i = 0; i < pl_document_get_n_parts (self->doc); i++)
+    {
+      const PlPart *part = pl_document_get_part (self->doc, i);
+      PlPartKind kind = pl_part_get_part_type (part)->kind;
+
+      if (target == TARGET_ACCUMULATOR && kind == PL_PART_ACCUMULATOR)
+        return part;
+      if (target == TARGET_HOSE && kind == PL_PART_HOSE
+          && pl_part_get_number (part, "length") > best_length)
+        {
+          best = part;
+          best_length = pl_part_get_number (part, "length");
+        }
+    }
+  return best;
+}
+
+/* The scenario's viscosity parameter for its law. */
+static const char *
+param_of (PlWhatIf *self, guint c)
+{
+  const char *law;
+
+  if (controls[c].param != NULL)
+    return controls[c].param;
+  law = self->doc != NULL
+        ? pl_part_get_choice_key (pl_document_get_scenario (self->doc), "viscosity-law")
+        : NULL;
+  if (g_strcmp0 (law, "power-law") == 0)
+    return "consistency";
+  if (g_strcmp0 (law, "carreau") == 0)
+    return "zero-shear-viscosity";
+  return "viscosity";
+}
+
+static double
+to_slider (guint c, double v)
+{
+  return controls[c].log ? log10 (v) : v;
+}
+
+static double
+from_slider (guint c, double x)
+{
+  return controls[c].log ? pow (10.0, x) : x;
+}
+
+static void
+show_value (PlWhatIf *self, guint c, double v)
+{
+  g_autofree char *text = pl_unit_format (v, controls[c].quantity, &self->units, 3,
+                                          PL_UNIT_DECIMAL_FROM_LOCALE);
+
+  gtk_label_set_text (GTK_LABEL (self->values[c]), text);
+}
+
+static void
+refresh (PlWhatIf *self)
+{
+  const PlPart *acc;
+
+  self->refreshing = TRUE;
+  for (guint c = 0; c < N_CONTROLS; c++)
+    {
+      const PlPart *part = find_target (self, controls[c].target);
+      double v = part != NULL ? pl_part_get_number (part, param_of (self, c)) : NAN;
+      g_autofree char *name = NULL;
+
+      gtk_widget_set_sensitive (GTK_WIDGET (self->scales[c]), isfinite (v));
+      if (controls[c].param == NULL && part != NULL)
+        {
+          /* The viscosity control sets the law's own parameter: its name. */
+          const PlParamSpec *spec = pl_part_type_find_param (pl_part_get_part_type (part),
+                                                             param_of (self, c), NULL);
+
+          name = g_strdup (spec != NULL ? _(spec->label) : _(controls[c].label));
+        }
+      else if (controls[c].target == TARGET_HOSE && part != NULL)
+        /* Translators: a what-if control's name for one part, "Hose bore (H1)". */
+        name = g_strdup_printf (_("%s (%s)"), _(controls[c].label), pl_part_get_tag (part));
+      else if (controls[c].target == TARGET_ACCUMULATOR && part != NULL)
+        name = g_strdup_printf (_("%s (%s)"), _(controls[c].label), pl_part_get_tag (part));
+      gtk_label_set_text (GTK_LABEL (self->names[c]), name != NULL ? name
+                                                                   : _(controls[c].label));
+      if (isfinite (v) && v > 0.0)
+        {
+          gtk_range_set_value (self->scales[c], to_slider (c, v));
+          show_value (self, c, v);
+        }
+      else
+        gtk_label_set_text (GTK_LABEL (self->values[c]), "–");
+    }
+  acc = find_target (self, TARGET_ACCUMULATOR);
+  gtk_switch_set_active (self->acc_switch, acc != NULL);
+  gtk_switch_set_state (self->acc_switch, acc != NULL);
+  gtk_widget_set_sensitive (GTK_WIDGET (self->acc_switch),
+                            acc != NULL || self->before_removal != NULL);
+  self->refreshing = FALSE;
+}
+
+static void
+say (PlWhatIf *self, const char *text)
+{
+  gtk_label_set_text (GTK_LABEL (self->message), text != NULL ? text : "");
+  gtk_widget_set_visible (self->message, text != NULL && *text != '\0');
+}
+
+static gboolean
+push (PlWhatIf *self, PlCommand *cmd, gboolean merge)
+{
+  g_autoptr (PlCommand) owned = cmd;
+  g_autoptr (GError) error = NULL;
+  gboolean ok = merge ? pl_undo_stack_push_merge (self->undo, owned, &error)
+                      : pl_undo_stack_push (self->undo, owned, &error);
+
+  say (self, ok ? NULL : error->message);
+  return ok;
+}
+
+static void
+value_changed_cb (GtkRange *range, PlWhatIf *self)
+{
+  guint c;
+  const PlPart *part;
+  gint64 now = g_get_monotonic_time ();
+  gboolean merge;
+  double v;
+
+  if (self->refreshing || self->undo == NULL)
+    return;
+  for (c = 0; c < N_CONTROLS && self->scales[c] != range; c++)
+    ;
+  g_return_if_fail (c < N_CONTROLS);
+  part = find_target (self, controls[c].target);
+  if (part == NULL)
+    return;
+  /* Three significant digits: what the value label shows is what is set. */
+  v = from_slider (c, gtk_range_get_value (range));
+  {
+    double mag = pow (10.0, floor (log10 (v)) - 2.0);
+
+    v = round (v / mag) * mag;
+  }
+  if (v == pl_part_get_number (part, param_of (self, c)))
+    return;
+  merge = self->last_change[c] != 0 && now - self->last_change[c] < PL_WHAT_IF_MERGE_MS * 1000;
+  self->last_change[c] = now;
+  for (guint k = 0; k < N_CONTROLS; k++)
+    if (k != c)
+      self->last_change[k] = 0;
+  /* push_merge folds only into a step that push_merge made itself, with
+   * nothing in between (pl-undo-stack.h); an empty group is such a
+   * "something" and records no step, so it starts a new drag's step. */
+  if (!merge)
+    {
+      pl_undo_stack_begin_group (self->undo, NULL);
+      pl_undo_stack_end_group (self->undo);
+    }
+  push (self, pl_command_new_set_number (pl_part_get_id (part), param_of (self, c), v), TRUE);
+  /* A refused value springs back to the document's. */
+  refresh (self);
+}
+
+/* Putting the accumulator back: the part with its values, then its wires,
+ * as one step. */
+static PlCommand *
+restore_command (PlWhatIf *self)
+{
+  const PlPart *part = pl_document_find_part (self->before_removal, self->removed_id);
+  const PlPartType *type;
+  g_autoptr (GPtrArray) cmds = g_ptr_array_new_with_free_func ((GDestroyNotify) pl_command_unref);
+
+  if (part == NULL)
+    return NULL;
+  type = pl_part_get_part_type (part);
+  g_ptr_array_add (cmds, pl_command_new_add_part_full (type->key, pl_part_get_id (part),
+                                                       pl_part_get_tag (part),
+                                                       pl_part_get_x (part),
+                                                       pl_part_get_y (part),
+                                                       pl_part_get_rotation (part),
+                                                       pl_part_get_mirrored (part)));
+  for (guint i = 0; i < type->n_params; i++)
+    g_ptr_array_add (cmds, pl_command_new_set_value (pl_part_get_id (part), type->params[i].key,
+                                                     pl_part_get_nth_value (part, i)));
+  for (guint i = 0; i < pl_document_get_n_wires (self->before_removal); i++)
+    {
+      const PlWire *w = pl_document_get_wire (self->before_removal, i);
+      const char *a = pl_wire_get_part_id (w, 0), *b = pl_wire_get_part_id (w, 1);
+      const PlPoint *bends;
+      guint n_bends;
+
+      if (g_strcmp0 (a, self->removed_id) != 0 && g_strcmp0 (b, self->removed_id) != 0)
+        continue;
+      /* The other end must still be there. */
+      if (pl_document_find_part (self->doc, g_strcmp0 (a, self->removed_id) == 0 ? b : a)
+          == NULL)
+        continue;
+      bends = pl_wire_get_bends (w, &n_bends);
+      g_ptr_array_add (cmds, pl_command_new_add_wire (NULL, a, pl_wire_get_port_key (w, 0), b,
+                                                      pl_wire_get_port_key (w, 1), bends,
+                                                      n_bends));
+    }
+  return pl_command_new_sequence (_("Put Accumulator Back"),
+                                  (PlCommand *const *) cmds->pdata, cmds->len);
+}
+
+static gboolean
+acc_state_set_cb (GtkSwitch *sw, gboolean on, PlWhatIf *self)
+{
+  const PlPart *acc;
+
+  if (self->refreshing || self->undo == NULL)
+    return FALSE;
+  acc = find_target (self, TARGET_ACCUMULATOR);
+  if (!on && acc != NULL)
+    {
+      const char *ids[] = { pl_part_get_id (acc) };
+
+      g_clear_object (&self->before_removal);
+      g_free (self->removed_id);
+      self->before_removal = pl_document_copy (self->doc);
+      self->removed_id = g_strdup (ids[0]);
+      push (self, pl_command_new_remove (ids, 1), FALSE);
+    }
+  else if (on && acc == NULL && self->before_removal != NULL)
+    {
+      PlCommand *cmd = restore_command (self);
+
+      if (cmd != NULL)
+        push (self, cmd, FALSE);
+    }
+  refresh (self);
+  return TRUE;
+}
+
+static void
+doc_changed_cb (PlDocument *doc, guint change, PlWhatIf *self)
+{
+  refresh (self);
+}
+
+static void
+pl_what_if_dispose (GObject *object)
+{
+  PlWhatIf *self = PL_WHAT_IF (object);
+
+  pl_what_if_set_document (self, NULL, NULL);
+  g_clear_object (&self->before_removal);
+  g_clear_pointer (&self->removed_id, g_free);
+  g_clear_pointer (&self->grid, gtk_widget_unparent);
+  G_OBJECT_CLASS (pl_what_if_parent_class)->dispose (object);
+}
+
+static void
+pl_what_if_class_init (PlWhatIfClass *klass)
+{
+  G_OBJECT_CLASS (klass)->dispose = pl_what_if_dispose;
+  gtk_widget_class_set_layout_manager_type (GTK_WIDGET_CLASS (klass), GTK_TYPE_BIN_LAYOUT);
+  gtk_widget_class_set_css_name (GTK_WIDGET_CLASS (klass), "pl-what-if");
+}
+
+static GtkWidget *
+name_label (const char *text)
+{
+  GtkWidget *label = gtk_label_new (text);
+
+  gtk_label_set_xalign (GTK_LABEL (label), 0.0);
+  return label;
+}
+
+static void
+pl_what_if_init (PlWhatIf *self)
+{
+  GtkGrid *grid;
+  guint row = 0;
+
+  pl_unit_prefs_init (&self->units, PL_UNIT_SYSTEM_SI);
+  self->grid = gtk_grid_new ();
+  grid = GTK_GRID (self->grid);
+  gtk_grid_set_row_spacing (grid, 6);
+  gtk_grid_set_column_spacing (grid, 12);
+  gtk_widget_set_parent (self->grid, GTK_WIDGET (self));
+
+  self->acc_name = name_label (_("Accumulator fitted"));
+  self->acc_switch = GTK_SWITCH (gtk_switch_new ());
+  gtk_widget_set_halign (GTK_WIDGET (self->acc_switch), GTK_ALIGN_START);
+  gtk_accessible_update_property (GTK_ACCESSIBLE (self->acc_switch),
+                                  GTK_ACCESSIBLE_PROPERTY_LABEL, _("Accumulator fitted"), -1);
+  g_signal_connect (self->acc_switch, "state-set", G_CALLBACK (acc_state_set_cb), self);
+  for (guint c = 0; c < N_CONTROLS; c++)
+    {
+      double lo = to_slider (c, controls[c].lo), hi = to_slider (c, controls[c].hi);
+      GtkWidget *scale = gtk_scale_new_with_range (GTK_ORIENTATION_HORIZONTAL, lo, hi,
+                                                   (hi - lo) / 200.0);
+
+      if (controls[c].target == TARGET_ACCUMULATOR)
+        {
+          gtk_grid_attach (grid, self->acc_name, 0, (int) row, 1, 1);
+          gtk_grid_attach (grid, GTK_WIDGET (self->acc_switch), 1, (int) row, 2, 1);
+          row++;
+        }
+      self->names[c] = name_label (_(controls[c].label));
+      self->scales[c] = GTK_RANGE (scale);
+      gtk_scale_set_draw_value (GTK_SCALE (scale), FALSE);
+      gtk_widget_set_hexpand (scale, TRUE);
+      gtk_widget_set_size_request (scale, 160, -1);
+      gtk_accessible_update_property (GTK_ACCESSIBLE (scale), GTK_ACCESSIBLE_PROPERTY_LABEL,
+                                      _(controls[c].label), -1);
+      g_signal_connect (scale, "value-changed", G_CALLBACK (value_changed_cb), self);
+      self->values[c] = name_label ("–");
+      gtk_label_set_width_chars (GTK_LABEL (self->values[c]), 9);
+      gtk_widget_add_css_class (self->values[c], "numeric");
+      gtk_grid_attach (grid, self->names[c], 0, (int) row, 1, 1);
+      gtk_grid_attach (grid, scale, 1, (int) row, 1, 1);
+      gtk_grid_attach (grid, self->values[c], 2, (int) row, 1, 1);
+      row++;
+    }
+  self->message = name_label ("");
+  gtk_label_set_wrap (GTK_LABEL (self->message), TRUE);
+  gtk_label_set_max_width_chars (GTK_LABEL (self->message), 40);
+  gtk_widget_add_css_class (self->message, "error");
+  gtk_widget_set_visible (self->message, FALSE);
+  gtk_grid_attach (grid, self->message, 0, (int) row, 3, 1);
+  refresh (self);
+}
+
+GtkWidget *
+pl_what_if_new (void)
+{
+  return g_object_new (PL_TYPE_WHAT_IF, NULL);
+}
+
+void
+pl_what_if_set_document (PlWhatIf *self, PlDocument *doc, PlUndoStack *undo)
+{
+  g_return_if_fail (PL_IS_WHAT_IF (self));
+  if (self->doc != NULL)
+    g_clear_signal_handler (&self->changed_id, self->doc);
+  g_set_object (&self->doc, doc);
+  g_set_object (&self->undo, undo);
+  if (doc != NULL)
+    self->changed_id = g_signal_connect (doc, "changed", G_CALLBACK (doc_changed_cb), self);
+  for (guint c = 0; c < N_CONTROLS; c++)
+    self->last_change[c] = 0;
+  if (gtk_widget_get_parent (self->grid) != NULL)
+    refresh (self);
+}
+
+void
+pl_what_if_set_units (PlWhatIf *self, const PlUnitPrefs *units)
+{
+  g_return_if_fail (PL_IS_WHAT_IF (self) && units != NULL);
+  self->units = *units;
+  refresh (self);
+}
+
+GtkRange *
+pl_what_if_get_control (PlWhatIf *self, const char *key)
+{
+  g_return_val_if_fail (PL_IS_WHAT_IF (self), NULL);
+  for (guint c = 0; c < N_CONTROLS; c++)
+    if (g_strcmp0 (controls[c].key, key) == 0)
+      return self->scales[c];
+  return NULL;
+}
+
+GtkSwitch *
+pl_what_if_get_accumulator_switch (PlWhatIf *self)
+{
+  g_return_val_if_fail (PL_IS_WHAT_IF (self), NULL);
+  return self->acc_switch;
+}
+
+const char *
+pl_what_if_get_message (PlWhatIf *self)
+{
+  g_return_val_if_fail (PL_IS_WHAT_IF (self), "");
+  return gtk_label_get_text (GTK_LABEL (self->message));
+}
