@@ -72,12 +72,12 @@ change_text (double d, double before, PlQuantity q, const PlUnitPrefs *units, in
 static char *
 pair_text (const PlBaselineRow *r, guint f, const PlUnitPrefs *units)
 {
-  g_autofree char *b = pl_unit_format (r->before[f], figures[f].quantity, units, 3,
-                                       PL_UNIT_DECIMAL_FROM_LOCALE);
+  g_autofree char *b = pl_unit_format_number (r->before[f], figures[f].quantity, units, 3,
+                                              PL_UNIT_DECIMAL_FROM_LOCALE);
   g_autofree char *a = pl_unit_format (r->after[f], figures[f].quantity, units, 3,
                                        PL_UNIT_DECIMAL_FROM_LOCALE);
 
-  /* Translators: before and after in a table cell, "152 bar → 160 bar". */
+  /* Translators: before and after in a table cell, "152 → 160 bar". */
   return g_strdup_printf (_("%s → %s"), b, a);
 }
 
