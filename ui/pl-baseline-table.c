@@ -63,7 +63,7 @@ change_text (double d, double before, PlQuantity q, const PlUnitPrefs *units, in
       return g_strdup_printf (_("= %s"), zero);
     }
   *sign = d > 0 ? 1 : -1;
-  mag = pl_unit_format (fabs (d), q, units, 2, PL_UNIT_DECIMAL_FROM_LOCALE);
+  mag = pl_unit_format (fabs (d), q, units, 3, PL_UNIT_DECIMAL_FROM_LOCALE);
   /* Translators: a rise and a fall in a before/after table: the arrow and
    * the sign say it in black and white too. */
   return d > 0 ? g_strdup_printf (_("▲ +%s"), mag) : g_strdup_printf (_("▼ −%s"), mag);
@@ -114,7 +114,7 @@ static void
 pl_baseline_table_init (PlBaselineTable *self)
 {
   self->grid = gtk_grid_new ();
-  gtk_grid_set_column_spacing (GTK_GRID (self->grid), 18);
+  gtk_grid_set_column_spacing (GTK_GRID (self->grid), 10);
   gtk_grid_set_row_spacing (GTK_GRID (self->grid), 4);
   gtk_widget_set_parent (self->grid, GTK_WIDGET (self));
   self->change_cells = g_hash_table_new_full (g_str_hash, g_str_equal, g_free, g_free);

@@ -170,7 +170,10 @@ rebuild_readouts (PlPresentation *self)
       name = kind == PL_PART_GAUGE ? g_strdup_printf (_("%s gauge"), pl_part_get_tag (part))
                                    : g_strdup_printf (_("%s at the inlet"),
                                                       pl_part_get_tag (part));
-      r.box = gtk_box_new (GTK_ORIENTATION_VERTICAL, 0);
+      /* The name and the detail stacked on the left, the big value on the
+       * right: five readouts and the what-if panel fit one column. */
+      r.box = gtk_grid_new ();
+      gtk_grid_set_column_spacing (GTK_GRID (r.box), 12);
       gtk_widget_add_css_class (r.box, "pl-readout");
       r.name = gtk_label_new (name);
       r.value = gtk_label_new ("–");
@@ -180,11 +183,15 @@ rebuild_readouts (PlPresentation *self)
       gtk_widget_add_css_class (r.value, "numeric");
       gtk_widget_add_css_class (r.detail, "pl-readout-detail");
       gtk_label_set_xalign (GTK_LABEL (r.name), 0.0);
-      gtk_label_set_xalign (GTK_LABEL (r.value), 0.0);
+      gtk_label_set_xalign (GTK_LABEL (r.value), 1.0);
       gtk_label_set_xalign (GTK_LABEL (r.detail), 0.0);
-      gtk_box_append (GTK_BOX (r.box), r.name);
-      gtk_box_append (GTK_BOX (r.box), r.value);
-      gtk_box_append (GTK_BOX (r.box), r.detail);
+      gtk_widget_set_hexpand (r.name, TRUE);
+      gtk_label_set_wrap (GTK_LABEL (r.detail), TRUE);
+      gtk_label_set_max_width_chars (GTK_LABEL (r.detail), 24);
+      gtk_label_set_width_chars (GTK_LABEL (r.value), 8);
+      gtk_grid_attach (GTK_GRID (r.box), r.name, 0, 0, 1, 1);
+      gtk_grid_attach (GTK_GRID (r.box), r.detail, 0, 1, 1, 1);
+      gtk_grid_attach (GTK_GRID (r.box), r.value, 1, 0, 1, 2);
       gtk_box_append (GTK_BOX (self->readouts_box), r.box);
       r.choice = gtk_check_button_new_with_label (name);
       gtk_check_button_set_active (GTK_CHECK_BUTTON (r.choice), TRUE);

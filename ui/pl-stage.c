@@ -11,8 +11,9 @@
 #include "pl-geometry.h"
 #include "pl-viewport.h"
 
-/* Room around the drawing (px): the labels of the outermost parts. */
-#define STAGE_MARGIN_PX 24.0
+/* Room around the drawing (px): the labels of the outermost parts, drawn
+ * at the raised text floor, reach past the drawing's bounds. */
+#define STAGE_MARGIN_PX 64.0
 
 struct _PlStage
 {
