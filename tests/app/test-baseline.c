@@ -19,32 +19,7 @@
 #include "pl-baseline.h"
 #include "pl-check.h"
 #include "pl-command.h"
-#include "pl-layout-reader.h"
-
-static PlDocument *
-load_sample (const char *name)
-{
-  g_autofree char *path = g_build_filename (g_getenv ("PRESSLINE_SOURCE_ROOT"), "samples",
-                                            name, NULL);
-  g_autoptr (GError) error = NULL;
-  PlDocument *doc = pl_layout_read_file (path, &error);
-
-  ck_assert_msg (doc != NULL, "%s: %s", path, error ? error->message : "?");
-  return doc;
-}
-
-static PlResults *
-solve (PlDocument *doc)
-{
-  g_autoptr (PlCompiled) compiled = pl_compile (doc);
-  g_autoptr (PlResults) fast = pl_results_solve_fast (compiled);
-  g_autoptr (GError) error = NULL;
-  PlResults *full = pl_results_solve_full (fast, NULL, &error);
-
-  ck_assert_msg (full != NULL, "%s", error ? error->message : "?");
-  ck_assert_int_eq (pl_results_get_transient_state (full), PL_TRANSIENT_DONE);
-  return full;
-}
+#include "pl-sample-fixtures.h"
 
 static void
 apply (PlDocument *doc, PlCommand *cmd)
@@ -78,8 +53,8 @@ static const struct
 
 START_TEST (test_wider_hose)
 {
-  g_autoptr (PlDocument) doc = load_sample (wider_rows[_i].sample);
-  g_autoptr (PlResults) before = solve (doc);
+  g_autoptr (PlDocument) doc = pl_test_load_sample (wider_rows[_i].sample);
+  g_autoptr (PlResults) before = pl_test_solve_full (doc);
   g_autoptr (PlBaseline) baseline = pl_baseline_new (doc, before);
   g_autoptr (PlResults) after = NULL;
   g_autoptr (GArray) rows = NULL;
@@ -89,7 +64,7 @@ START_TEST (test_wider_hose)
   ck_assert_double_eq_tol (pl_part_get_number (pl_document_find_part (doc, "p3"), "bore"),
                            wider_rows[_i].bore_before, 1e-9);
   apply (doc, pl_command_new_set_number ("p3", "bore", 1.5 * wider_rows[_i].bore_before));
-  after = solve (doc);
+  after = pl_test_solve_full (doc);
   rows = pl_baseline_compare (baseline, doc, after);
   ck_assert_uint_gt (rows->len, 0);
 
@@ -125,8 +100,8 @@ END_TEST
  * no before; pinned parts that stay have both. */
 START_TEST (test_added_and_removed)
 {
-  g_autoptr (PlDocument) doc = load_sample ("demo-glue-line.pline");
-  g_autoptr (PlResults) before = solve (doc);
+  g_autoptr (PlDocument) doc = pl_test_load_sample ("demo-glue-line.pline");
+  g_autoptr (PlResults) before = pl_test_solve_full (doc);
   g_autoptr (PlBaseline) baseline = pl_baseline_new (doc, before);
   g_autoptr (PlResults) after = NULL;
   g_autoptr (GArray) rows = NULL;
@@ -140,7 +115,7 @@ START_TEST (test_added_and_removed)
   apply (doc, pl_command_new_remove (ids, 1));
   ck_assert (pl_command_apply (add, doc, NULL));
   added_id = pl_command_get_created_id (add);
-  after = solve (doc);
+  after = pl_test_solve_full (doc);
   rows = pl_baseline_compare (baseline, doc, after);
 
   gone = row_of (rows, "p15");
@@ -174,8 +149,8 @@ END_TEST
 /* Results of another revision are not "after": every after is NaN. */
 START_TEST (test_stale_results)
 {
-  g_autoptr (PlDocument) doc = load_sample ("carton-sealer-starved.pline");
-  g_autoptr (PlResults) before = solve (doc);
+  g_autoptr (PlDocument) doc = pl_test_load_sample ("carton-sealer-starved.pline");
+  g_autoptr (PlResults) before = pl_test_solve_full (doc);
   g_autoptr (PlBaseline) baseline = pl_baseline_new (doc, before);
   g_autoptr (GArray) rows = NULL;
 

@@ -16,39 +16,21 @@
 #include <math.h>
 
 #include "pl-check.h"
-#include "pl-layout-reader.h"
+#include "pl-sample-fixtures.h"
 #include "pl-render.h"
 #include "pl-results-series.h"
 
 static PlDocument *
 load_demo (void)
 {
-  g_autofree char *path = g_build_filename (g_getenv ("PRESSLINE_SOURCE_ROOT"), "samples",
-                                            "demo-glue-line.pline", NULL);
-  g_autoptr (GError) error = NULL;
-  PlDocument *doc = pl_layout_read_file (path, &error);
-
-  ck_assert_msg (doc != NULL, "%s", error ? error->message : "?");
-  return doc;
-}
-
-static PlResults *
-solve_full (PlDocument *doc)
-{
-  g_autoptr (PlCompiled) compiled = pl_compile (doc);
-  g_autoptr (PlResults) fast = pl_results_solve_fast (compiled);
-  g_autoptr (GError) error = NULL;
-  PlResults *full = pl_results_solve_full (fast, NULL, &error);
-
-  ck_assert_msg (full != NULL, "%s", error ? error->message : "?");
-  return full;
+  return pl_test_load_sample ("demo-glue-line.pline");
 }
 
 /* The gauge G1 (p7) and the applicator N2 (p15) of the demo. */
 START_TEST (test_cycle_instants)
 {
   g_autoptr (PlDocument) doc = load_demo ();
-  g_autoptr (PlResults) r = solve_full (doc);
+  g_autoptr (PlResults) r = pl_test_solve_full (doc);
   const pls_cycle_result *cy = pl_results_get_cycle (r);
   int node = pl_compiled_get_port_node (pl_results_get_compiled (r), "p7", "p");
   size_t n = pls_cycle_sample_count (cy);
@@ -107,7 +89,7 @@ END_TEST
 START_TEST (test_shutdown_instants)
 {
   g_autoptr (PlDocument) doc = load_demo ();
-  g_autoptr (PlResults) r = solve_full (doc);
+  g_autoptr (PlResults) r = pl_test_solve_full (doc);
   double length, p0, p_end, p_after, idle, safe;
 
   ck_assert (pl_results_get_run_length (r, PL_RUN_SHUTDOWN, &length));
@@ -166,7 +148,7 @@ draw_at (PlDocument *doc, PlResults *r, PlRun run, double t)
 START_TEST (test_render_replay)
 {
   g_autoptr (PlDocument) doc = load_demo ();
-  g_autoptr (PlResults) r = solve_full (doc);
+  g_autoptr (PlResults) r = pl_test_solve_full (doc);
   cairo_surface_t *shot = draw_at (doc, r, PL_RUN_CYCLE, 0.0125);
   cairo_surface_t *rest = draw_at (doc, r, PL_RUN_CYCLE, 0.3);
   cairo_surface_t *start = draw_at (doc, r, PL_RUN_SHUTDOWN, 0.0);

@@ -23,12 +23,12 @@
 
 #include <gtk/gtk.h>
 #include <math.h>
-#include <stdio.h>
 
 #include "pl-application.h"
 #include "pl-check.h"
 #include "pl-presentation.h"
 #include "pl-results-series.h"
+#include "pl-ui-test.h"
 #include "pl-window.h"
 
 static PlApplication *app;
@@ -51,43 +51,6 @@ app_teardown (void)
   g_clear_object (&app);
 }
 
-static void
-spin (guint ms)
-{
-  gint64 end = g_get_monotonic_time () + (gint64) ms * 1000;
-
-  /* Bounded by the clock alone: while a replay plays the frame clock
-   * always has work pending. */
-  while (g_get_monotonic_time () < end)
-    {
-      g_main_context_iteration (NULL, FALSE);
-      g_usleep (1000);
-    }
-}
-
-static void
-wait_for_full (PlWindow *window)
-{
-  PlSolveScheduler *sched = pl_window_get_scheduler (window);
-  gint64 end = g_get_monotonic_time () + 60 * G_USEC_PER_SEC;
-
-  while (g_get_monotonic_time () < end)
-    {
-      PlResults *full = pl_solve_scheduler_get_full_results (sched);
-
-      if (!pl_solve_scheduler_get_busy (sched) && full != NULL
-          && pl_results_get_revision (full)
-               == pl_document_get_revision (pl_window_get_document (window)))
-        {
-          spin (20);
-          return;
-        }
-      g_main_context_iteration (NULL, FALSE);
-      g_usleep (2000);
-    }
-  ck_abort_msg ("no full results within 60 s");
-}
-
 static PlWindow *
 open_sample (const char *name)
 {
@@ -101,7 +64,7 @@ open_sample (const char *name)
   for (int i = 0; i < 500 && !gtk_widget_get_mapped (GTK_WIDGET (window)); i++)
     g_main_context_iteration (NULL, TRUE);
   ck_assert_msg (pl_window_load_file (window, file, &error), "%s", error ? error->message : "");
-  wait_for_full (window);
+  pl_ui_test_wait_for_full (window);
   return window;
 }
 
@@ -124,33 +87,8 @@ enter (PlWindow *window)
   gtk_window_set_default_size (GTK_WINDOW (p), 1600, 1000);
   for (int i = 0; i < 500 && !gtk_widget_get_mapped (GTK_WIDGET (p)); i++)
     g_main_context_iteration (NULL, TRUE);
-  spin (150);
+  pl_ui_test_spin (150);
   return p;
-}
-
-static void
-save_shot (GtkWidget *widget, const char *name)
-{
-  const char *root = g_getenv ("PRESSLINE_BUILD_ROOT");
-  g_autofree char *dir = g_build_filename (root != NULL ? root : ".", "tests", "ui",
-                                           "screenshots", NULL);
-  g_autofree char *path = g_build_filename (dir, name, NULL);
-  int w = gtk_widget_get_width (widget), h = gtk_widget_get_height (widget);
-  g_autoptr (GdkPaintable) paintable = gtk_widget_paintable_new (widget);
-  GtkSnapshot *snapshot = gtk_snapshot_new ();
-  GskRenderer *renderer = gtk_native_get_renderer (gtk_widget_get_native (widget));
-  GskRenderNode *node;
-  g_autoptr (GdkTexture) texture = NULL;
-
-  ck_assert_int_gt (w, 0);
-  gdk_paintable_snapshot (paintable, snapshot, w, h);
-  node = gtk_snapshot_free_to_node (snapshot);
-  ck_assert_ptr_nonnull (node);
-  texture = gsk_renderer_render_texture (renderer, node, &GRAPHENE_RECT_INIT (0, 0, w, h));
-  gsk_render_node_unref (node);
-  g_mkdir_with_parents (dir, 0755);
-  ck_assert_msg (gdk_texture_save_to_png (texture, path), "cannot write %s", path);
-  printf ("artifact: %s (%d x %d)\n", path, w, h);
 }
 
 static double
@@ -194,13 +132,13 @@ START_TEST (test_teach_the_starved_line)
   ck_assert (pl_results_get_run_length (full, PL_RUN_CYCLE, &period));
   ck_assert_double_eq_tol (pl_replay_get_duration (replay), period, 1e-12);
   ck_assert (!pl_replay_is_playing (replay));
-  save_shot (GTK_WIDGET (p), "presentation-idle.png");
+  pl_ui_test_save_shot (GTK_WIDGET (p), "presentation-idle.png");
 
   /* Play on the frame clock: time moves, frames come. */
   pl_presentation_reset_frame_stats (p);
   ck_assert (gtk_widget_activate_action (GTK_WIDGET (p), "presentation.play-pause", NULL));
   ck_assert (pl_replay_is_playing (replay));
-  spin (1500);
+  pl_ui_test_spin (1500);
   n_frames = pl_presentation_get_frame_stats (p, &mean_us, &max_us);
   printf ("figure: replay on the frame clock: %u frames in 1.5 s, mean interval %.1f ms, "
           "longest %.1f ms (Xvfb, machine shared)\n", n_frames, mean_us / 1e3, max_us / 1e3);
@@ -212,16 +150,16 @@ START_TEST (test_teach_the_starved_line)
   /* Mid-shot. */
   on_time = pl_part_get_number (pl_document_get_scenario (doc), "on-time");
   gtk_range_set_value (scrubber, 0.5 * on_time);
-  spin (100);
+  pl_ui_test_spin (100);
   ck_assert_double_eq_tol (pl_replay_get_position (replay), 0.5 * on_time, 1e-9);
-  save_shot (GTK_WIDGET (p), "presentation-mid-shot.png");
+  pl_ui_test_save_shot (GTK_WIDGET (p), "presentation-mid-shot.png");
 
   /* Scrub to the far applicator's lowest pressure: the readout is the
    * solver's minimum within display rounding. */
   ck_assert (pl_results_get_port_min_time (full, far, "in", PL_RUN_CYCLE, &t_min, &p_min));
   ck_assert (pl_results_get_port_pressure (full, far, "in", PL_PRESSURE_CYCLE_MIN, &cycle_min));
   gtk_range_set_value (scrubber, t_min);
-  spin (50);
+  pl_ui_test_spin (50);
   shown = readout_si (p, far);
   printf ("figure: N4 lowest: solver %.4g Pa, sampled %.4g Pa at %.4g s, readout \"%s\"\n",
           cycle_min, p_min, t_min, pl_presentation_get_readout (p, far));
@@ -239,13 +177,13 @@ START_TEST (test_teach_the_starved_line)
   for (double d = 7e-3; d <= 9.6e-3; d += 0.8e-3)
     {
       gtk_range_set_value (bore, d);
-      spin (30);
+      pl_ui_test_spin (30);
     }
   ck_assert_uint_eq (pl_undo_stack_get_n_undo (undo), n_undo + 1);
   ck_assert_double_gt (pl_part_get_number (pl_document_find_part_by_tag (doc, "H1"), "bore"),
                        9e-3);
-  wait_for_full (window);
-  spin (100);
+  pl_ui_test_wait_for_full (window);
+  pl_ui_test_spin (100);
   rows = pl_baseline_table_get_rows (pl_presentation_get_baseline_table (p));
   ck_assert_ptr_nonnull (rows);
   for (guint i = 0; i < rows->len; i++)
@@ -265,12 +203,12 @@ START_TEST (test_teach_the_starved_line)
                                  pl_presentation_get_baseline_table (p), far,
                                  PL_BASELINE_CYCLE_MIN), "▲ +"));
   gtk_range_set_value (scrubber, 0.5 * on_time);
-  spin (100);
-  save_shot (GTK_WIDGET (p), "presentation-baseline.png");
+  pl_ui_test_spin (100);
+  pl_ui_test_save_shot (GTK_WIDGET (p), "presentation-baseline.png");
 
   /* The shutdown: its own length, the pressure falls from idle. */
   gtk_toggle_button_set_active (pl_presentation_get_run_button (p, PL_RUN_SHUTDOWN), TRUE);
-  spin (50);
+  pl_ui_test_spin (50);
   ck_assert_int_eq (replay->run, PL_RUN_SHUTDOWN);
   {
     double length, idle, mid;
@@ -279,12 +217,12 @@ START_TEST (test_teach_the_starved_line)
     ck_assert (pl_results_get_run_length (full, PL_RUN_SHUTDOWN, &length));
     ck_assert_double_eq_tol (pl_replay_get_duration (replay), length, 1e-12);
     gtk_range_set_value (scrubber, 0.5 * length);
-    spin (100);
+    pl_ui_test_spin (100);
     mid = readout_si (p, far);
     ck_assert (pl_results_get_port_pressure (full, far, "in", PL_PRESSURE_IDLE, &idle));
     ck_assert_double_lt (mid, idle);
   }
-  save_shot (GTK_WIDGET (p), "presentation-shutdown.png");
+  pl_ui_test_save_shot (GTK_WIDGET (p), "presentation-shutdown.png");
 
   /* The widening is one undo step back to 1/4 in. */
   ck_assert (pl_undo_stack_undo (undo));
@@ -293,7 +231,7 @@ START_TEST (test_teach_the_starved_line)
 
   /* Leave (Escape and F5 are bound to this action). */
   ck_assert (gtk_widget_activate_action (GTK_WIDGET (p), "presentation.leave", NULL));
-  spin (50);
+  pl_ui_test_spin (50);
   {
     g_autoptr (GList) tops = gtk_window_list_toplevels ();
 
@@ -302,7 +240,7 @@ START_TEST (test_teach_the_starved_line)
   }
   pl_undo_stack_mark_clean (undo);
   gtk_window_destroy (GTK_WINDOW (window));
-  spin (10);
+  pl_ui_test_spin (10);
 }
 END_TEST
 
@@ -321,23 +259,23 @@ START_TEST (test_accumulator_switch_and_gauge)
 
   ck_assert_ptr_nonnull (pl_presentation_get_readout (p, gauge));
   ck_assert_str_ne (pl_presentation_get_readout (p, gauge), "–");
-  save_shot (GTK_WIDGET (p), "presentation-demo.png");
+  pl_ui_test_save_shot (GTK_WIDGET (p), "presentation-demo.png");
   ck_assert (gtk_switch_get_active (sw));
   gtk_switch_set_active (sw, FALSE);
-  spin (20);
+  pl_ui_test_spin (20);
   ck_assert_uint_eq (pl_document_get_n_parts (doc), n_parts - 1);
   ck_assert_ptr_null (pl_document_find_part_by_tag (doc, "A1"));
   gtk_switch_set_active (sw, TRUE);
-  spin (20);
+  pl_ui_test_spin (20);
   ck_assert_uint_eq (pl_document_get_n_parts (doc), n_parts);
   ck_assert_uint_eq (pl_document_get_n_wires (doc), n_wires);
   ck_assert_ptr_nonnull (pl_document_find_part_by_tag (doc, "A1"));
   ck_assert_uint_eq (pl_undo_stack_get_n_undo (undo), n_undo + 2);
-  wait_for_full (window);
+  pl_ui_test_wait_for_full (window);
   ck_assert (gtk_widget_activate_action (GTK_WIDGET (p), "presentation.leave", NULL));
   pl_undo_stack_mark_clean (undo);
   gtk_window_destroy (GTK_WINDOW (window));
-  spin (10);
+  pl_ui_test_spin (10);
 }
 END_TEST
 

@@ -1,0 +1,78 @@
+/* SPDX-License-Identifier: GPL-3.0-or-later
+ *
+ * pl-ui-test.h: what a GTK suite needs besides Check: turning the main
+ * loop for a while, waiting for a window's full results, and writing a
+ * widget's rendering to BUILD/tests/ui/screenshots.  (test-editor.c and
+ * test-window.c still keep their own copies of the first two.)
+ */
+#pragma once
+
+#include <gtk/gtk.h>
+#include <stdio.h>
+
+#include "pl-check.h"
+#include "pl-window.h"
+
+/* Turns the main loop for ms, bounded by the clock alone: while a tick
+ * callback runs, the frame clock always has work pending. */
+static inline void
+pl_ui_test_spin (guint ms)
+{
+  gint64 end = g_get_monotonic_time () + (gint64) ms * 1000;
+
+  while (g_get_monotonic_time () < end)
+    {
+      g_main_context_iteration (NULL, FALSE);
+      g_usleep (1000);
+    }
+}
+
+/* Until the worker has delivered the present revision's cycle and
+ * shutdown (60 s at most: sanitizer builds on a shared machine). */
+static inline void
+pl_ui_test_wait_for_full (PlWindow *window)
+{
+  PlSolveScheduler *sched = pl_window_get_scheduler (window);
+  gint64 end = g_get_monotonic_time () + 60 * G_USEC_PER_SEC;
+
+  while (g_get_monotonic_time () < end)
+    {
+      PlResults *full = pl_solve_scheduler_get_full_results (sched);
+
+      if (!pl_solve_scheduler_get_busy (sched) && full != NULL
+          && pl_results_get_revision (full)
+               == pl_document_get_revision (pl_window_get_document (window)))
+        {
+          pl_ui_test_spin (20);
+          return;
+        }
+      g_main_context_iteration (NULL, FALSE);
+      g_usleep (2000);
+    }
+  ck_abort_msg ("no full results within 60 s");
+}
+
+static inline void
+pl_ui_test_save_shot (GtkWidget *widget, const char *name)
+{
+  const char *root = g_getenv ("PRESSLINE_BUILD_ROOT");
+  g_autofree char *dir = g_build_filename (root != NULL ? root : ".", "tests", "ui",
+                                           "screenshots", NULL);
+  g_autofree char *path = g_build_filename (dir, name, NULL);
+  int w = gtk_widget_get_width (widget), h = gtk_widget_get_height (widget);
+  g_autoptr (GdkPaintable) paintable = gtk_widget_paintable_new (widget);
+  GtkSnapshot *snapshot = gtk_snapshot_new ();
+  GskRenderer *renderer = gtk_native_get_renderer (gtk_widget_get_native (widget));
+  GskRenderNode *node;
+  g_autoptr (GdkTexture) texture = NULL;
+
+  ck_assert_int_gt (w, 0);
+  gdk_paintable_snapshot (paintable, snapshot, w, h);
+  node = gtk_snapshot_free_to_node (snapshot);
+  ck_assert_ptr_nonnull (node);
+  texture = gsk_renderer_render_texture (renderer, node, &GRAPHENE_RECT_INIT (0, 0, w, h));
+  gsk_render_node_unref (node);
+  g_mkdir_with_parents (dir, 0755);
+  ck_assert_msg (gdk_texture_save_to_png (texture, path), "cannot write %s", path);
+  printf ("artifact: %s (%d x %d)\n", path, w, h);
+}
