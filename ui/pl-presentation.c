@@ -490,9 +490,31 @@ pl_presentation_class_init (PlPresentationClass *klass)
   gtk_widget_class_install_action (wc, "presentation.pin", NULL, action_pin);
   gtk_widget_class_install_action (wc, "presentation.unpin", NULL, action_unpin);
   gtk_widget_class_install_action (wc, "presentation.leave", NULL, action_leave);
-  gtk_widget_class_add_binding_action (wc, GDK_KEY_Escape, 0, "presentation.leave", NULL);
-  gtk_widget_class_add_binding_action (wc, GDK_KEY_F5, 0, "presentation.leave", NULL);
-  gtk_widget_class_add_binding_action (wc, GDK_KEY_space, 0, "presentation.play-pause", NULL);
+}
+
+/* Space, Escape and F5 act in the capture phase: a focused button would
+ * otherwise take Space as its own click. */
+static void
+add_keys (PlPresentation *self)
+{
+  static const struct
+  {
+    guint key;
+    const char *action;
+  } keys[] = {
+    { GDK_KEY_space, "presentation.play-pause" },
+    { GDK_KEY_Escape, "presentation.leave" },
+    { GDK_KEY_F5, "presentation.leave" },
+  };
+  GtkEventController *controller = gtk_shortcut_controller_new ();
+
+  gtk_event_controller_set_propagation_phase (controller, GTK_PHASE_CAPTURE);
+  for (guint i = 0; i < G_N_ELEMENTS (keys); i++)
+    gtk_shortcut_controller_add_shortcut (GTK_SHORTCUT_CONTROLLER (controller),
+                                          gtk_shortcut_new (gtk_keyval_trigger_new (keys[i].key,
+                                                                                    0),
+                                                            gtk_named_action_new (keys[i].action)));
+  gtk_widget_add_controller (GTK_WIDGET (self), controller);
 }
 
 static void
@@ -506,6 +528,7 @@ pl_presentation_init (PlPresentation *self)
 
   G_STATIC_ASSERT (PL_REPLAY_N_SPEEDS == 4);
   gtk_widget_init_template (GTK_WIDGET (self));
+  add_keys (self);
   self->readouts = g_array_new (FALSE, TRUE, sizeof (Readout));
   g_array_set_clear_func (self->readouts, readout_clear);
   pl_unit_prefs_init (&self->units, PL_UNIT_SYSTEM_SI);
