@@ -94,6 +94,16 @@ format_pressure (PlPresentation *self, double p)
                          PL_UNIT_DECIMAL_FROM_LOCALE);
 }
 
+/* Sets a label only when its text changes: a new text means a new size
+ * request and a relayout of the window, which every frame of a replay
+ * would otherwise pay for. */
+static void
+set_text (GtkWidget *label, const char *text)
+{
+  if (g_strcmp0 (gtk_label_get_text (GTK_LABEL (label)), text) != 0)
+    gtk_label_set_text (GTK_LABEL (label), text);
+}
+
 /* --- readouts --- */
 
 static void
@@ -133,8 +143,8 @@ update_readouts (PlPresentation *self)
           value = format_pressure (self, p);
           detail = g_strdup (_("all applicators open; the cycle is being solved"));
         }
-      gtk_label_set_text (GTK_LABEL (r->value), value != NULL ? value : "–");
-      gtk_label_set_text (GTK_LABEL (r->detail), detail != NULL ? detail : _("no result"));
+      set_text (r->value, value != NULL ? value : "–");
+      set_text (r->detail, detail != NULL ? detail : _("no result"));
     }
 }
 
@@ -218,7 +228,7 @@ update_time_label (PlPresentation *self)
   else
     /* Translators: replay time since the air went off, in seconds. */
     text = g_strdup_printf (_("%.2f s of %.2f s"), t, len);
-  gtk_label_set_text (self->time_label, text);
+  set_text (GTK_WIDGET (self->time_label), text);
   if (self->replay.run == PL_RUN_CYCLE && len > 0.0)
     {
       /* The applicators are open during the on-time plus the closing ramp
@@ -226,14 +236,13 @@ update_time_label (PlPresentation *self)
       double open = pl_part_get_number (scenario, "on-time")
                     + pl_part_get_number (scenario, "close-ramp");
 
-      gtk_label_set_text (self->phase_label, t < open ? _("Applicators open: the shot")
-                                                      : _("Applicators shut: recovery"));
+      set_text (GTK_WIDGET (self->phase_label), t < open ? _("Applicators open: the shot")
+                                                         : _("Applicators shut: recovery"));
     }
   else if (len > 0.0)
-    gtk_label_set_text (self->phase_label,
-                        _("Air off: the dump valve drains the line"));
+    set_text (GTK_WIDGET (self->phase_label), _("Air off: the dump valve drains the line"));
   else
-    gtk_label_set_text (self->phase_label, "");
+    set_text (GTK_WIDGET (self->phase_label), "");
 }
 
 /* Shows the clock's position everywhere. */
