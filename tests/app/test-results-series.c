@@ -167,6 +167,37 @@ START_TEST (test_render_replay)
 }
 END_TEST
 
+/* A raised text floor (the presentation's stage): at 1 px/mm the tags
+ * (3.4 mm) are below the renderer's 3.5 px cut and not drawn; with a
+ * 13 px floor they are, so the two drawings differ by hundreds of
+ * pixels. */
+START_TEST (test_text_floor)
+{
+  g_autoptr (PlDocument) doc = load_demo ();
+  cairo_surface_t *s[2];
+  guint differ;
+
+  for (int k = 0; k < 2; k++)
+    {
+      cairo_t *cr;
+      PlRenderOptions opts;
+
+      s[k] = cairo_image_surface_create (CAIRO_FORMAT_ARGB32, 400, 400);
+      cr = cairo_create (s[k]);
+      pl_render_options_init (&opts);
+      opts.min_text_px = k == 0 ? 0.0 : 13.0;
+      cairo_translate (cr, 200, 200);
+      ck_assert_int_eq (pl_render_document (cr, doc, NULL, &opts), CAIRO_STATUS_SUCCESS);
+      cairo_destroy (cr);
+      cairo_surface_flush (s[k]);
+    }
+  differ = differing (s[0], s[1], 0, 0, 400, 400);
+  ck_assert_uint_gt (differ, 500);
+  cairo_surface_destroy (s[0]);
+  cairo_surface_destroy (s[1]);
+}
+END_TEST
+
 static Suite *
 results_series_suite (void)
 {
@@ -177,6 +208,7 @@ results_series_suite (void)
   tcase_add_test (tc, test_cycle_instants);
   tcase_add_test (tc, test_shutdown_instants);
   tcase_add_test (tc, test_render_replay);
+  tcase_add_test (tc, test_text_floor);
   suite_add_tcase (s, tc);
   return s;
 }
