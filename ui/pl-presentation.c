@@ -222,8 +222,9 @@ update_time_label (PlPresentation *self)
 
   if (!(len > 0.0))
     text = g_strdup (_("waiting for the solve"));
-  else if (self->replay.run == PL_RUN_CYCLE)
-    /* Translators: replay time within the firing cycle, in milliseconds. */
+  else if (self->replay.run == PL_RUN_CYCLE || len < 1.0)
+    /* Translators: replay time within the firing cycle (or a shutdown
+     * shorter than a second), in milliseconds. */
     text = g_strdup_printf (_("%.1f ms of %.0f ms"), 1e3 * t, 1e3 * len);
   else
     /* Translators: replay time since the air went off, in seconds. */
