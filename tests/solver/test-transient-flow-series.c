@@ -8,6 +8,7 @@
 #include "config.h"
 
 #include <math.h>
+#include <stdio.h>
 #include <stdlib.h>
 
 #include "pl-check.h"
@@ -46,8 +47,9 @@ run_cycle (const pls_network *net, int samples)
  * shot mass / density, which the solver integrates at every step.  The
  * rule's error is O(h^2) on smooth stretches and O(h^2 * slope jump) at
  * each of the valve ramp's four kinks, so it must shrink as the samples
- * get denser: about 1 % of the shot at the default 200 samples (h = 2.5 ms
- * against 2 ms ramps), well under 0.1 % at 4000 (h = 0.125 ms). */
+ * get denser: 0.15 % of the shot at the default 200 samples (h = 2.5 ms
+ * against 2 ms ramps; asked below 0.5 %), 4e-5 % at 4000 (h = 0.125 ms;
+ * asked below 0.01 %). */
 START_TEST (test_cycle_shot_volume)
 {
   pls_test_layout l = pls_test_layout_new (4, 0, 10e-3);
@@ -64,9 +66,11 @@ START_TEST (test_cycle_shot_volume)
       double err_coarse = fabs (cycle_flow_integral (coarse, e) - pls_cycle_shot_mass (coarse, e)
                                 / f.density);
 
+      printf ("figure: A%d shot volume check: trapezoid error %.3g %% at 200 samples, "
+              "%.3g %% at 4000\n", a + 1, 100.0 * err_coarse / shot, 100.0 * err_fine / shot);
       ck_assert_double_gt (shot, 0.0);
-      ck_assert_double_lt (err_coarse, 0.02 * shot);
-      ck_assert_double_lt (err_fine, 1e-3 * shot);
+      ck_assert_double_lt (err_coarse, 5e-3 * shot);
+      ck_assert_double_lt (err_fine, 1e-4 * shot);
       ck_assert_double_lt (err_fine, err_coarse + 1e-6 * shot);
       /* An applicator's flow leaves the line: never much below zero. */
       for (size_t i = 0; i < pls_cycle_sample_count (fine); i++)
@@ -126,6 +130,8 @@ START_TEST (test_shutdown_drain_volume)
   ap.neck_length = 0.05;
   acc_volume = pls_accumulator_fluid_volume (&ap, p);
   hose_volume = (area / 1.5e9 + 3e-14) * 10.0 * p;
+  printf ("figure: drained %.4g mL; accumulator held %.4g mL, hose bound %.4g mL\n",
+          1e6 * drained, 1e6 * acc_volume, 2e6 * hose_volume);
   ck_assert_double_gt (acc_volume, 0.0);
   ck_assert_double_ge (drained, 0.98 * acc_volume);
   ck_assert_double_le (drained, acc_volume + 2.0 * hose_volume);
