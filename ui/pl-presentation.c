@@ -10,15 +10,8 @@
 #include <glib/gi18n.h>
 #include <math.h>
 
+#include "pl-label-text.h"
 #include "pl-results-series.h"
-
-/* One readout: a gauge's connection or an applicator's inlet. */
-typedef struct
-{
-  char *part_id;
-  const char *port_key;        /* static: "p" or "in" */
-  GtkWidget *box, *name, *value, *detail, *choice;
-} Readout;
 
 struct _PlPresentation
 {
@@ -26,7 +19,7 @@ struct _PlPresentation
 
   /* template */
   GtkLabel *title_label;
-  GtkWidget *readout_choices;
+  GtkPopover *readout_popover;
   PlStage *stage;
   GtkWidget *play_button;
   GtkDropDown *speed_dropdown;
@@ -36,7 +29,7 @@ struct _PlPresentation
   GtkLabel *phase_label;
   GtkRevealer *baseline_revealer;
   PlBaselineTable *baseline_table;
-  GtkWidget *readouts_box;
+  PlReadouts *readouts;
   PlWhatIf *what_if;
 
   PlDocument *doc;
@@ -48,7 +41,6 @@ struct _PlPresentation
   PlReplay replay;
   guint tick_id;
   gboolean scrubbing;          /* setting the scrubber from the clock */
-  GArray *readouts;            /* Readout */
   PlBaseline *baseline;
 
   /* frame statistics while playing */
@@ -57,14 +49,6 @@ struct _PlPresentation
 };
 
 G_DEFINE_FINAL_TYPE (PlPresentation, pl_presentation, GTK_TYPE_WINDOW)
-
-static void
-readout_clear (gpointer data)
-{
-  Readout *r = data;
-
-  g_free (r->part_id);
-}
 
 /* The newest snapshots of the present revision (borrowed, may be NULL). */
 static PlResults *
@@ -87,128 +71,11 @@ current_any (PlPresentation *self)
          ? fast : NULL;
 }
 
-static char *
-format_pressure (PlPresentation *self, double p)
-{
-  return pl_unit_format (p, PL_QUANTITY_PRESSURE, &self->units, 3,
-                         PL_UNIT_DECIMAL_FROM_LOCALE);
-}
-
-/* Sets a label only when its text changes: a new text means a new size
- * request and a relayout of the window, which every frame of a replay
- * would otherwise pay for. */
-static void
-set_text (GtkWidget *label, const char *text)
-{
-  if (g_strcmp0 (gtk_label_get_text (GTK_LABEL (label)), text) != 0)
-    gtk_label_set_text (GTK_LABEL (label), text);
-}
-
-/* --- readouts --- */
-
 static void
 update_readouts (PlPresentation *self)
 {
-  PlResults *full = current_full (self), *any = current_any (self);
-  double t = pl_replay_get_position (&self->replay);
-
-  for (guint i = 0; i < self->readouts->len; i++)
-    {
-      Readout *r = &g_array_index (self->readouts, Readout, i);
-      g_autofree char *value = NULL, *detail = NULL;
-      double p, ref;
-
-      if (full != NULL
-          && pl_results_get_port_pressure_at (full, r->part_id, r->port_key, self->replay.run, t,
-                                              &p))
-        {
-          PlPressureKind kind = self->replay.run == PL_RUN_CYCLE ? PL_PRESSURE_CYCLE_MIN
-                                                                 : PL_PRESSURE_IDLE;
-          g_autofree char *ref_text = NULL;
-
-          value = format_pressure (self, p);
-          if (pl_results_get_port_pressure (full, r->part_id, r->port_key, kind, &ref))
-            {
-              ref_text = format_pressure (self, ref);
-              /* Translators: under a big pressure readout. */
-              detail = self->replay.run == PL_RUN_CYCLE
-                       ? g_strdup_printf (_("lowest in the cycle %s"), ref_text)
-                       : g_strdup_printf (_("%s before the air went off"), ref_text);
-            }
-        }
-      else if (any != NULL
-               && pl_results_get_port_pressure (any, r->part_id, r->port_key,
-                                                PL_PRESSURE_STEADY_OPEN, &p))
-        {
-          value = format_pressure (self, p);
-          detail = g_strdup (_("all applicators open; the cycle is being solved"));
-        }
-      set_text (r->value, value != NULL ? value : "–");
-      set_text (r->detail, detail != NULL ? detail : _("no result"));
-    }
-}
-
-static void
-choice_toggled_cb (GtkCheckButton *button, GtkWidget *box)
-{
-  gtk_widget_set_visible (box, gtk_check_button_get_active (button));
-}
-
-/* One readout per gauge and applicator of the document, in its order. */
-static void
-rebuild_readouts (PlPresentation *self)
-{
-  GtkWidget *child;
-
-  while ((child = gtk_widget_get_first_child (self->readouts_box)) != NULL)
-    gtk_box_remove (GTK_BOX (self->readouts_box), child);
-  while ((child = gtk_widget_get_first_child (self->readout_choices)) != NULL)
-    gtk_box_remove (GTK_BOX (self->readout_choices), child);
-  g_array_set_size (self->readouts, 0);
-  for (guint i = 0; i < pl_document_get_n_parts (self->doc); i++)
-    {
-      const PlPart *part = pl_document_get_part (self->doc, i);
-      PlPartKind kind = pl_part_get_part_type (part)->kind;
-      g_autofree char *name = NULL;
-      Readout r = { 0 };
-
-      if (kind != PL_PART_GAUGE && kind != PL_PART_APPLICATOR)
-        continue;
-      r.part_id = g_strdup (pl_part_get_id (part));
-      r.port_key = kind == PL_PART_GAUGE ? "p" : "in";
-      /* Translators: the name over a big readout: "G1 gauge", "N4 at the inlet". */
-      name = kind == PL_PART_GAUGE ? g_strdup_printf (_("%s gauge"), pl_part_get_tag (part))
-                                   : g_strdup_printf (_("%s at the inlet"),
-                                                      pl_part_get_tag (part));
-      /* The name and the detail stacked on the left, the big value on the
-       * right: five readouts and the what-if panel fit one column. */
-      r.box = gtk_grid_new ();
-      gtk_grid_set_column_spacing (GTK_GRID (r.box), 12);
-      gtk_widget_add_css_class (r.box, "pl-readout");
-      r.name = gtk_label_new (name);
-      r.value = gtk_label_new ("–");
-      r.detail = gtk_label_new ("");
-      gtk_widget_add_css_class (r.name, "pl-readout-name");
-      gtk_widget_add_css_class (r.value, "pl-readout-value");
-      gtk_widget_add_css_class (r.value, "numeric");
-      gtk_widget_add_css_class (r.detail, "pl-readout-detail");
-      gtk_label_set_xalign (GTK_LABEL (r.name), 0.0);
-      gtk_label_set_xalign (GTK_LABEL (r.value), 1.0);
-      gtk_label_set_xalign (GTK_LABEL (r.detail), 0.0);
-      gtk_widget_set_hexpand (r.name, TRUE);
-      gtk_label_set_wrap (GTK_LABEL (r.detail), TRUE);
-      gtk_label_set_max_width_chars (GTK_LABEL (r.detail), 24);
-      gtk_label_set_width_chars (GTK_LABEL (r.value), 8);
-      gtk_grid_attach (GTK_GRID (r.box), r.name, 0, 0, 1, 1);
-      gtk_grid_attach (GTK_GRID (r.box), r.detail, 0, 1, 1, 1);
-      gtk_grid_attach (GTK_GRID (r.box), r.value, 1, 0, 1, 2);
-      gtk_box_append (GTK_BOX (self->readouts_box), r.box);
-      r.choice = gtk_check_button_new_with_label (name);
-      gtk_check_button_set_active (GTK_CHECK_BUTTON (r.choice), TRUE);
-      g_signal_connect (r.choice, "toggled", G_CALLBACK (choice_toggled_cb), r.box);
-      gtk_box_append (GTK_BOX (self->readout_choices), r.choice);
-      g_array_append_val (self->readouts, r);
-    }
+  pl_readouts_update (self->readouts, current_full (self), current_any (self),
+                      self->replay.run, pl_replay_get_position (&self->replay), &self->units);
 }
 
 /* --- the clock --- */
@@ -229,7 +96,7 @@ update_time_label (PlPresentation *self)
   else
     /* Translators: replay time since the air went off, in seconds. */
     text = g_strdup_printf (_("%.2f s of %.2f s"), t, len);
-  set_text (GTK_WIDGET (self->time_label), text);
+  pl_label_set_text_if_changed (GTK_WIDGET (self->time_label), text);
   if (self->replay.run == PL_RUN_CYCLE && len > 0.0)
     {
       /* The applicators are open during the on-time plus the closing ramp
@@ -237,13 +104,15 @@ update_time_label (PlPresentation *self)
       double open = pl_part_get_number (scenario, "on-time")
                     + pl_part_get_number (scenario, "close-ramp");
 
-      set_text (GTK_WIDGET (self->phase_label), t < open ? _("Applicators open: the shot")
-                                                         : _("Applicators shut: recovery"));
+      pl_label_set_text_if_changed (GTK_WIDGET (self->phase_label),
+                                    t < open ? _("Applicators open: the shot")
+                                             : _("Applicators shut: recovery"));
     }
   else if (len > 0.0)
-    set_text (GTK_WIDGET (self->phase_label), _("Air off: the dump valve drains the line"));
+    pl_label_set_text_if_changed (GTK_WIDGET (self->phase_label),
+                                  _("Air off: the dump valve drains the line"));
   else
-    set_text (GTK_WIDGET (self->phase_label), "");
+    pl_label_set_text_if_changed (GTK_WIDGET (self->phase_label), "");
 }
 
 /* Shows the clock's position everywhere. */
@@ -365,8 +234,6 @@ doc_changed_cb (PlDocument *doc, guint change, PlPresentation *self)
   title = *line != '\0' ? g_strdup_printf (_("Presenting: %s"), line)
                         : g_strdup (_("Presenting the layout"));
   gtk_label_set_text (self->title_label, title);
-  if (change & (PL_CHANGE_TOPOLOGY | PL_CHANGE_ANNOTATION) || self->readouts->len == 0)
-    rebuild_readouts (self);
   update_readouts (self);
 }
 
@@ -466,7 +333,6 @@ pl_presentation_dispose (GObject *object)
   g_clear_object (&self->doc);
   g_clear_object (&self->undo);
   g_clear_object (&self->scheduler);
-  g_clear_pointer (&self->readouts, g_array_unref);
   gtk_widget_dispose_template (GTK_WIDGET (self), PL_TYPE_PRESENTATION);
   G_OBJECT_CLASS (pl_presentation_parent_class)->dispose (object);
 }
@@ -480,10 +346,11 @@ pl_presentation_class_init (PlPresentationClass *klass)
   g_type_ensure (PL_TYPE_STAGE);
   g_type_ensure (PL_TYPE_WHAT_IF);
   g_type_ensure (PL_TYPE_BASELINE_TABLE);
+  g_type_ensure (PL_TYPE_READOUTS);
   gtk_widget_class_set_template_from_resource (wc,
                                                "/org/pressline/Pressline/pl-presentation.ui");
   gtk_widget_class_bind_template_child (wc, PlPresentation, title_label);
-  gtk_widget_class_bind_template_child (wc, PlPresentation, readout_choices);
+  gtk_widget_class_bind_template_child (wc, PlPresentation, readout_popover);
   gtk_widget_class_bind_template_child (wc, PlPresentation, stage);
   gtk_widget_class_bind_template_child (wc, PlPresentation, play_button);
   gtk_widget_class_bind_template_child (wc, PlPresentation, speed_dropdown);
@@ -494,7 +361,7 @@ pl_presentation_class_init (PlPresentationClass *klass)
   gtk_widget_class_bind_template_child (wc, PlPresentation, phase_label);
   gtk_widget_class_bind_template_child (wc, PlPresentation, baseline_revealer);
   gtk_widget_class_bind_template_child (wc, PlPresentation, baseline_table);
-  gtk_widget_class_bind_template_child (wc, PlPresentation, readouts_box);
+  gtk_widget_class_bind_template_child (wc, PlPresentation, readouts);
   gtk_widget_class_bind_template_child (wc, PlPresentation, what_if);
   gtk_widget_class_install_action (wc, "presentation.play-pause", NULL, action_play_pause);
   gtk_widget_class_install_action (wc, "presentation.pin", NULL, action_pin);
@@ -520,10 +387,13 @@ add_keys (PlPresentation *self)
 
   gtk_event_controller_set_propagation_phase (controller, GTK_PHASE_CAPTURE);
   for (guint i = 0; i < G_N_ELEMENTS (keys); i++)
-    gtk_shortcut_controller_add_shortcut (GTK_SHORTCUT_CONTROLLER (controller),
-                                          gtk_shortcut_new (gtk_keyval_trigger_new (keys[i].key,
-                                                                                    0),
-                                                            gtk_named_action_new (keys[i].action)));
+    {
+      GtkShortcutTrigger *trigger = gtk_keyval_trigger_new (keys[i].key, 0);
+      GtkShortcutAction *action = gtk_named_action_new (keys[i].action);
+
+      gtk_shortcut_controller_add_shortcut (GTK_SHORTCUT_CONTROLLER (controller),
+                                            gtk_shortcut_new (trigger, action));
+    }
   gtk_widget_add_controller (GTK_WIDGET (self), controller);
 }
 
@@ -539,8 +409,7 @@ pl_presentation_init (PlPresentation *self)
   G_STATIC_ASSERT (PL_REPLAY_N_SPEEDS == 4);
   gtk_widget_init_template (GTK_WIDGET (self));
   add_keys (self);
-  self->readouts = g_array_new (FALSE, TRUE, sizeof (Readout));
-  g_array_set_clear_func (self->readouts, readout_clear);
+  gtk_popover_set_child (self->readout_popover, pl_readouts_get_choices (self->readouts));
   pl_unit_prefs_init (&self->units, PL_UNIT_SYSTEM_SI);
   pl_replay_init (&self->replay);
   list = gtk_string_list_new (speeds);
@@ -579,6 +448,7 @@ pl_presentation_new (GtkWindow *parent, PlDocument *doc, PlUndoStack *undo,
   if (units != NULL)
     self->units = *units;
   pl_stage_set_document (self->stage, doc);
+  pl_readouts_set_document (self->readouts, doc);
   pl_stage_set_units (self->stage, &self->units);
   pl_what_if_set_document (self->what_if, doc, undo);
   pl_what_if_set_units (self->what_if, &self->units);
@@ -652,14 +522,7 @@ const char *
 pl_presentation_get_readout (PlPresentation *self, const char *part_id)
 {
   g_return_val_if_fail (PL_IS_PRESENTATION (self), NULL);
-  for (guint i = 0; i < self->readouts->len; i++)
-    {
-      Readout *r = &g_array_index (self->readouts, Readout, i);
-
-      if (g_strcmp0 (r->part_id, part_id) == 0)
-        return gtk_label_get_text (GTK_LABEL (r->value));
-    }
-  return NULL;
+  return pl_readouts_get_value (self->readouts, part_id);
 }
 
 void

@@ -18,6 +18,7 @@
 
 #include "pl-baseline-table.h"
 #include "pl-document.h"
+#include "pl-readouts.h"
 #include "pl-replay.h"
 #include "pl-solve-scheduler.h"
 #include "pl-stage.h"
