@@ -2,16 +2,33 @@
  *
  * pl-ui-test.h: what a GTK suite needs besides Check: turning the main
  * loop for a while, waiting for a window's full results, and writing a
- * widget's rendering to BUILD/tests/ui/screenshots.  (test-editor.c and
- * test-window.c still keep their own copies of the first two.)
+ * widget's rendering to BUILD/tests/ui/screenshots; making the
+ * application.  (test-editor.c and test-window.c still keep their own
+ * copies of some of these.)
  */
 #pragma once
 
 #include <gtk/gtk.h>
 #include <stdio.h>
 
+#include "pl-application.h"
 #include "pl-check.h"
 #include "pl-window.h"
+
+/* The application, registered without owning the bus name (a test need
+ * not be the only instance); registering runs its startup. */
+static inline PlApplication *
+pl_ui_test_app_new (void)
+{
+  g_autoptr (GError) error = NULL;
+  PlApplication *app = pl_application_new ();
+
+  g_application_set_flags (G_APPLICATION (app),
+                           G_APPLICATION_HANDLES_OPEN | G_APPLICATION_NON_UNIQUE);
+  ck_assert_msg (g_application_register (G_APPLICATION (app), NULL, &error),
+                 "register: %s", error ? error->message : "");
+  return app;
+}
 
 /* Turns the main loop for ms, bounded by the clock alone: while a tick
  * callback runs, the frame clock always has work pending. */

@@ -36,13 +36,7 @@ static PlApplication *app;
 static void
 app_setup (void)
 {
-  g_autoptr (GError) error = NULL;
-
-  app = pl_application_new ();
-  g_application_set_flags (G_APPLICATION (app),
-                           G_APPLICATION_HANDLES_OPEN | G_APPLICATION_NON_UNIQUE);
-  ck_assert_msg (g_application_register (G_APPLICATION (app), NULL, &error),
-                 "register: %s", error ? error->message : "");
+  app = pl_ui_test_app_new ();
 }
 
 static void
