@@ -77,6 +77,15 @@ typedef struct
                                       * the highest pressure drawn */
 } PlRenderOptions;
 
+/* The ports whose pressure a drawing labels (PlRenderOptions'
+ * pressure_ports): every applicator's inlet and every pump's outlet (the
+ * two ends a designer compares) and each port of the parts in selection (a
+ * set of ids, or NULL); gauges are labelled by the renderer anyway.  Ports
+ * on one hydraulic node of results (may be NULL), or on one spot, are
+ * labelled once: two labels there would print over each other.  A new
+ * array of PlPortRef borrowing doc's strings (valid until doc changes). */
+GArray *pl_render_key_ports (PlDocument *doc, PlResults *results, GHashTable *selection);
+
 /* Light style, SI, background, grid and legend on, ports off, no
  * selection, steady-open pressures, no replay, automatic ramp. */
 void pl_render_options_init (PlRenderOptions *opts);
