@@ -309,8 +309,18 @@ dose_bar (PlRenderCtx *ctx, const PlPart *part, double x, double y)
   cairo_stroke (ctx->cr);
   if (size == 0.0)
     return height;
-  /* Translators: a shot's deviation from the mean of all shots, in %. */
-  text = g_strdup_printf (_("%+.1f %%"), 100.0 * dev);
+  if (ctx->opts->show_shot_mass)
+    {
+      g_autofree char *m = pl_unit_format (mass, PL_QUANTITY_MASS, ctx->opts->units, 3,
+                                           PL_UNIT_DECIMAL_FROM_LOCALE);
+
+      /* Translators: a shot's mass and its deviation from the mean of all
+       * shots, "0.449 g, +0.2 %". */
+      text = g_strdup_printf (_("%s, %+.1f %%"), m, 100.0 * dev);
+    }
+  else
+    /* Translators: a shot's deviation from the mean of all shots, in %. */
+    text = g_strdup_printf (_("%+.1f %%"), 100.0 * dev);
   pl_render_layout_text (ctx, text, size, fabs (dev) > ctx->uniformity, &w, &h);
   pl_render_show_layout (ctx, x + width + 1.0, y + 0.5 * height - 0.5 * h, &ctx->pal->text);
   return MAX (height, h);

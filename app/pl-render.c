@@ -103,6 +103,8 @@ pl_render_line_width (PlRenderCtx *ctx, double mm)
 double
 pl_render_text_size (PlRenderCtx *ctx, double mm)
 {
+  if (ctx->opts->paper_scale > 0.0)
+    return MAX (mm, PL_RENDER_PAPER_TEXT_MM / ctx->opts->paper_scale);
   if (mm * ctx->scale < PL_RENDER_HIDE_TEXT_PX)
     return 0.0;
   return MAX (mm, PL_RENDER_MIN_TEXT_PX * ctx->px);

@@ -75,6 +75,13 @@ typedef struct
                                       * NaN for none */
   double pressure_max;               /* top of the ramp (Pa); <= 0 or NaN:
                                       * the highest pressure drawn */
+  gboolean show_shot_mass;           /* a dose bar's figures give the shot's
+                                      * mass before its deviation (sheets) */
+  double paper_scale;                /* sheets: mm of paper per mm of drawing.
+                                      * Text is then never hidden and never
+                                      * under PL_RENDER_PAPER_TEXT_MM on the
+                                      * paper, whatever the device; 0: the
+                                      * screen's pixel rules */
 } PlRenderOptions;
 
 /* The ports whose pressure a drawing labels (PlRenderOptions'
