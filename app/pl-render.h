@@ -75,8 +75,10 @@ typedef struct
                                       * NaN for none */
   double pressure_max;               /* top of the ramp (Pa); <= 0 or NaN:
                                       * the highest pressure drawn */
-  gboolean show_shot_mass;           /* a dose bar's figures give the shot's
-                                      * mass before its deviation (sheets) */
+  gboolean show_dose_details;        /* a dose bar's figures give the inlet
+                                      * pressure and the shot's mass before its
+                                      * deviation (sheets, where a label at the
+                                      * inlet would meet the line's text) */
   double paper_scale;                /* sheets: mm of paper per mm of drawing.
                                       * Text is then never hidden and never
                                       * under PL_RENDER_PAPER_TEXT_MM on the

@@ -57,6 +57,25 @@ used_types (PlWorkOrder *wo)
   return types;
 }
 
+/* The renderer's key ports less the applicators' inlets: on a sheet their
+ * pressure goes with the dose figures under each applicator, where a
+ * label at the inlet would meet the text of the line above it. */
+static GArray *
+sheet_key_ports (PlWorkOrder *wo)
+{
+  GArray *ports = pl_render_key_ports (wo->doc, wo->results, NULL);
+
+  for (guint i = ports->len; i-- > 0;)
+    {
+      const PlPortRef *ref = &g_array_index (ports, PlPortRef, i);
+      const PlPart *part = pl_document_find_part (wo->doc, ref->part_id);
+
+      if (part != NULL && pl_part_get_part_type (part)->kind == PL_PART_APPLICATOR)
+        g_array_remove_index (ports, i);
+    }
+  return ports;
+}
+
 static guint
 legend_columns (double width)
 {
@@ -161,7 +180,7 @@ pl_wo_draw_diagram_sheet (PlWorkOrder *wo, cairo_t *cr)
 {
   double x0, y0, x1, y1, y, cw, side_w, band_h, legend_h, title_h;
   gboolean landscape = wo->opts.width_mm > wo->opts.height_mm;
-  g_autoptr (GArray) ports = pl_render_key_ports (wo->doc, wo->results, NULL);
+  g_autoptr (GArray) ports = sheet_key_ports (wo);
   g_autofree char *heading = NULL;
   g_autoptr (PangoLayout) caption = NULL;
   double caption_h, dw, dh;
@@ -178,7 +197,7 @@ pl_wo_draw_diagram_sheet (PlWorkOrder *wo, cairo_t *cr)
   /* What the technician watches for: the lowest reading while firing;
    * without a cycle, the idle pressure, and the caption says so. */
   ro.pressure_kind = cycle_known (wo) ? PL_PRESSURE_CYCLE_MIN : PL_PRESSURE_IDLE;
-  ro.show_shot_mass = TRUE;
+  ro.show_dose_details = TRUE;
 
   pl_wo_content_box (wo, &x0, &y0, &x1, &y1);
   cw = x1 - x0;
@@ -195,12 +214,13 @@ pl_wo_draw_diagram_sheet (PlWorkOrder *wo, cairo_t *cr)
   legend_h = legend_height (wo, landscape ? side_w : cw - side_w - 4.0);
   caption = pl_wo_layout (wo, cycle_known (wo)
                               ? _("On the drawing: the lowest pressure while firing at each "
-                                  "gauge, pump outlet and applicator inlet; at each "
-                                  "applicator, a bar of its shot against the mean shot, its "
-                                  "mass and its difference from the mean.")
+                                  "gauge and pump outlet; under each applicator, a bar of "
+                                  "its shot against the mean shot, then its lowest inlet "
+                                  "pressure while firing, its shot's mass and the "
+                                  "difference from the mean.")
                               : _("On the drawing: the pressure at idle at each gauge, pump "
-                                  "outlet and applicator inlet. The firing cycle was not "
-                                  "solved, so no figure while firing is shown."),
+                                  "outlet and applicator. The firing cycle was not solved, "
+                                  "so no figure while firing is shown."),
                           PL_WO_SMALL_MM, FALSE, landscape ? cw - side_w - 4.0 : cw);
   pl_wo_layout_size (caption, NULL, &caption_h);
 
