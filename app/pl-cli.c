@@ -101,6 +101,35 @@ pl_cli_take_option (int argc, char **argv, int *i, const char *name, const char 
   return TRUE;
 }
 
+/* An argument no option took: an unknown option, the layout FILE, or one
+ * FILE too many.  FALSE with the message printed when it cannot be used. */
+static gboolean
+pl_cli_take_file (const char *command, const char *arg, const char **filename)
+{
+  if (arg[0] == '-' && arg[1] != '\0')
+    {
+      g_autofree char *msg = g_strdup_printf (_("unknown option “%s”."), arg);
+
+      pl_cli_usage_error (command, msg);
+      return FALSE;
+    }
+  if (*filename != NULL)
+    {
+      pl_cli_usage_error (command, _("only one FILE may be given."));
+      return FALSE;
+    }
+  *filename = arg;
+  return TRUE;
+}
+
+static gboolean
+pl_cli_have_file (const char *command, const char *filename)
+{
+  if (filename == NULL)
+    pl_cli_usage_error (command, _("a layout FILE is needed."));
+  return filename != NULL;
+}
+
 /* solve FILE [--format text|csv|json] [--units si|us]; options may come
  * before or after FILE, as "--format json" or "--format=json".
  * Exit 0 when the report was written (findings of any severity are in the
@@ -142,26 +171,11 @@ pl_cli_solve (int argc, char **argv)
             }
           pl_unit_prefs_init (&prefs, system);
         }
-      else if (arg[0] == '-' && arg[1] != '\0')
-        {
-          g_autofree char *msg = g_strdup_printf (_("unknown option “%s”."), arg);
-
-          pl_cli_usage_error (argv[0], msg);
-          return 2;
-        }
-      else if (filename == NULL)
-        filename = arg;
-      else
-        {
-          pl_cli_usage_error (argv[0], _("only one FILE may be given."));
-          return 2;
-        }
+      else if (!pl_cli_take_file (argv[0], arg, &filename))
+        return 2;
     }
-  if (filename == NULL)
-    {
-      pl_cli_usage_error (argv[0], _("a layout FILE is needed."));
-      return 2;
-    }
+  if (!pl_cli_have_file (argv[0], filename))
+    return 2;
 
   results = pl_cli_load_and_solve (filename);
   if (results == NULL)
@@ -283,26 +297,11 @@ pl_cli_export (int argc, char **argv)
             }
           pl_unit_prefs_init (&opts.units, system);
         }
-      else if (arg[0] == '-' && arg[1] != '\0')
-        {
-          g_autofree char *msg = g_strdup_printf (_("unknown option “%s”."), arg);
-
-          pl_cli_usage_error (argv[0], msg);
-          return 2;
-        }
-      else if (filename == NULL)
-        filename = arg;
-      else
-        {
-          pl_cli_usage_error (argv[0], _("only one FILE may be given."));
-          return 2;
-        }
+      else if (!pl_cli_take_file (argv[0], arg, &filename))
+        return 2;
     }
-  if (filename == NULL)
-    {
-      pl_cli_usage_error (argv[0], _("a layout FILE is needed."));
-      return 2;
-    }
+  if (!pl_cli_have_file (argv[0], filename))
+    return 2;
   if (output == NULL)
     {
       pl_cli_usage_error (argv[0], _("-o OUT.pdf, OUT.svg or OUT.png is needed."));

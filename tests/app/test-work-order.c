@@ -19,6 +19,7 @@
 #include "pl-check.h"
 #include "pl-json-parse.h"
 #include "pl-spawn-cli.h"
+#include "pl-tmpdir.h"
 
 #include "pl-command.h"
 #include "pl-compile.h"
@@ -28,39 +29,6 @@
 #include "pl-results.h"
 #include "pl-solve-scheduler.h"
 #include "pl-work-order.h"
-
-static char *tmpdir;
-
-static void
-tmp_setup (void)
-{
-  g_autoptr (GError) error = NULL;
-
-  tmpdir = g_dir_make_tmp ("pl-work-order-XXXXXX", &error);
-  ck_assert_msg (tmpdir != NULL, "%s", error ? error->message : "");
-}
-
-static void
-tmp_teardown (void)
-{
-  g_autoptr (GDir) dir = g_dir_open (tmpdir, 0, NULL);
-  const char *name;
-
-  while (dir != NULL && (name = g_dir_read_name (dir)) != NULL)
-    {
-      g_autofree char *path = g_build_filename (tmpdir, name, NULL);
-
-      g_unlink (path);
-    }
-  g_rmdir (tmpdir);
-  g_clear_pointer (&tmpdir, g_free);
-}
-
-static char *
-tmp_path (const char *name)
-{
-  return g_build_filename (tmpdir, name, NULL);
-}
 
 /* White space of any kind and length as one space: pdftotext breaks lines
  * where the sheet wraps them. */
@@ -169,7 +137,7 @@ layout_file (const LayoutCase *c)
   if (c->sample != NULL)
     return sample_path (c->sample);
   doc = filled_demo ();
-  path = tmp_path ("filled-demo.pline");
+  path = pl_tmpdir_path ("filled-demo.pline");
   ck_assert_msg (pl_layout_write_file (doc, path, &error), "%s", error ? error->message : "");
   return path;
 }
@@ -312,7 +280,7 @@ START_TEST (test_pdf_text)
 {
   const LayoutCase *c = &layouts[_i];
   g_autofree char *path = layout_file (c);
-  g_autofree char *pdf = tmp_path ("sheets.pdf");
+  g_autofree char *pdf = pl_tmpdir_path ("sheets.pdf");
   const char *args[] = { "export", path, "-o", pdf, NULL };
   CliRun r = spawn_cli_argv (args);
   g_autoptr (TjValue) root = solve_json (path);
@@ -375,7 +343,7 @@ START_TEST (test_svg_sheets)
 {
   const LayoutCase *c = &layouts[_i];
   g_autofree char *path = layout_file (c);
-  g_autofree char *svg = tmp_path ("sheets.svg");
+  g_autofree char *svg = pl_tmpdir_path ("sheets.svg");
   const char *args[] = { "export", path, "-o", svg, "--orientation", "landscape", NULL };
   CliRun r = spawn_cli_argv (args);
   g_autoptr (PlDocument) doc = pl_layout_read_file (path, NULL);
@@ -433,7 +401,7 @@ START_TEST (test_png_size)
   const PngCase *c = &pngs[_i];
   PlDocument *doc = NULL;
   g_autoptr (PlResults) results = demo_results (&doc);
-  g_autofree char *png = tmp_path ("sheet.png");
+  g_autofree char *png = pl_tmpdir_path ("sheet.png");
   g_autoptr (GError) error = NULL;
   g_autoptr (PlWorkOrder) wo = NULL;
   PlWorkOrderOptions opts;
@@ -475,7 +443,7 @@ START_TEST (test_pdf_papers)
   PlOrientation orientation = _i % PL_N_ORIENTATIONS;
   PlDocument *doc = NULL;
   g_autoptr (PlResults) results = demo_results (&doc);
-  g_autofree char *pdf = tmp_path ("paper.pdf");
+  g_autofree char *pdf = pl_tmpdir_path ("paper.pdf");
   g_autoptr (GError) error = NULL;
   g_autoptr (PlWorkOrder) wo = NULL;
   g_autofree char *info = NULL;
@@ -636,8 +604,8 @@ START_TEST (test_bad_arguments)
         g_ptr_array_add (args, g_strdup (demo));
       else if (g_str_has_prefix (a, "OUT:"))
         {
-          g_ptr_array_add (args, tmp_path (a + 4));
-          g_ptr_array_add (outputs, tmp_path (a + 4));
+          g_ptr_array_add (args, pl_tmpdir_path (a + 4));
+          g_ptr_array_add (outputs, pl_tmpdir_path (a + 4));
         }
       else
         g_ptr_array_add (args, g_strdup (a));
@@ -661,7 +629,7 @@ START_TEST (test_failed_write_keeps_old_file)
 {
   PlDocument *doc = NULL;
   g_autoptr (PlResults) results = demo_results (&doc);
-  g_autofree char *png = tmp_path ("keep.png");
+  g_autofree char *png = pl_tmpdir_path ("keep.png");
   g_autoptr (PlWorkOrder) wo = NULL;
   g_autoptr (GError) error = NULL;
   g_autofree char *after = NULL;
@@ -685,7 +653,7 @@ work_order_suite (void)
   TCase *tp = tcase_create ("papers");
   TCase *tc = tcase_create ("command line");
 
-  tcase_add_checked_fixture (tf, tmp_setup, tmp_teardown);
+  tcase_add_checked_fixture (tf, pl_tmpdir_setup, pl_tmpdir_teardown);
   tcase_set_timeout (tf, 120);
   tcase_add_loop_test (tf, test_pdf_text, 0, G_N_ELEMENTS (layouts));
   tcase_add_loop_test (tf, test_svg_sheets, 0, G_N_ELEMENTS (layouts));
@@ -693,14 +661,14 @@ work_order_suite (void)
   tcase_add_test (tf, test_cycle_missing);
   suite_add_tcase (s, tf);
 
-  tcase_add_checked_fixture (tp, tmp_setup, tmp_teardown);
+  tcase_add_checked_fixture (tp, pl_tmpdir_setup, pl_tmpdir_teardown);
   tcase_set_timeout (tp, 120);
   tcase_add_loop_test (tp, test_png_size, 0, G_N_ELEMENTS (pngs));
   tcase_add_loop_test (tp, test_pdf_papers, 0, PL_N_PAPERS * PL_N_ORIENTATIONS);
   tcase_add_test (tp, test_failed_write_keeps_old_file);
   suite_add_tcase (s, tp);
 
-  tcase_add_checked_fixture (tc, tmp_setup, tmp_teardown);
+  tcase_add_checked_fixture (tc, pl_tmpdir_setup, pl_tmpdir_teardown);
   tcase_set_timeout (tc, 120);
   tcase_add_loop_test (tc, test_bad_arguments, 0, G_N_ELEMENTS (bad_cases));
   suite_add_tcase (s, tc);

@@ -20,6 +20,7 @@
 #include "pl-application.h"
 #include "pl-canvas.h"
 #include "pl-check.h"
+#include "pl-ui-test.h"
 #include "pl-command.h"
 #include "pl-geometry.h"
 #include "pl-layout-reader.h"
@@ -33,15 +34,9 @@ static PlApplication *app;
 static void
 app_setup (void)
 {
-  g_autoptr (GError) error = NULL;
-
   /* Frame statistics of the canvas (read when a canvas is made). */
   g_setenv ("PRESSLINE_FRAME_STATS", "1", TRUE);
-  app = pl_application_new ();
-  g_application_set_flags (G_APPLICATION (app),
-                           G_APPLICATION_HANDLES_OPEN | G_APPLICATION_NON_UNIQUE);
-  ck_assert_msg (g_application_register (G_APPLICATION (app), NULL, &error),
-                 "register: %s", error ? error->message : "");
+  app = pl_ui_test_app_new ();
 }
 
 static void
@@ -785,25 +780,6 @@ END_TEST
 
 /* --- screenshots --- */
 
-static GdkTexture *
-render_widget (GtkWidget *widget)
-{
-  int w = gtk_widget_get_width (widget), h = gtk_widget_get_height (widget);
-  g_autoptr (GdkPaintable) paintable = gtk_widget_paintable_new (widget);
-  GtkSnapshot *snapshot = gtk_snapshot_new ();
-  GskRenderNode *node;
-  GskRenderer *renderer = gtk_native_get_renderer (gtk_widget_get_native (widget));
-  GdkTexture *texture;
-
-  ck_assert_int_gt (w, 0);
-  gdk_paintable_snapshot (paintable, snapshot, w, h);
-  node = gtk_snapshot_free_to_node (snapshot);
-  ck_assert_ptr_nonnull (node);
-  texture = gsk_renderer_render_texture (renderer, node, &GRAPHENE_RECT_INIT (0, 0, w, h));
-  gsk_render_node_unref (node);
-  return texture;
-}
-
 /* Mean luma (Rec. 709 weights) of a texture, 0..1. */
 static double
 mean_luma (GdkTexture *texture)
@@ -817,20 +793,6 @@ mean_luma (GdkTexture *texture)
   for (gsize i = 0; i < (gsize) w * h; i++)
     sum += 0.0722 * data[4 * i] + 0.7152 * data[4 * i + 1] + 0.2126 * data[4 * i + 2];
   return sum / ((double) w * h * 255.0);
-}
-
-static void
-save_shot (GtkWidget *widget, const char *name)
-{
-  const char *root = g_getenv ("PRESSLINE_BUILD_ROOT");
-  g_autofree char *dir = g_build_filename (root != NULL ? root : ".", "tests", "ui",
-                                           "screenshots", NULL);
-  g_autofree char *path = g_build_filename (dir, name, NULL);
-  g_autoptr (GdkTexture) texture = render_widget (widget);
-
-  g_mkdir_with_parents (dir, 0755);
-  ck_assert_msg (gdk_texture_save_to_png (texture, path), "cannot write %s", path);
-  printf ("artifact: %s\n", path);
 }
 
 START_TEST (test_screenshots)

@@ -17,51 +17,23 @@
 #include "pl-check.h"
 #include "pl-export-dialog.h"
 #include "pl-print.h"
+#include "pl-tmpdir.h"
+#include "pl-ui-test.h"
 #include "pl-window.h"
 
 static PlApplication *app;
-static char *tmpdir;
 
 /* One application for the suite: it can be registered on the bus once. */
 static void
 app_setup (void)
 {
-  g_autoptr (GError) error = NULL;
-
-  app = pl_application_new ();
-  g_application_set_flags (G_APPLICATION (app),
-                           G_APPLICATION_HANDLES_OPEN | G_APPLICATION_NON_UNIQUE);
-  ck_assert_msg (g_application_register (G_APPLICATION (app), NULL, &error),
-                 "register: %s", error ? error->message : "");
+  app = pl_ui_test_app_new ();
 }
 
 static void
 app_teardown (void)
 {
   g_clear_object (&app);
-}
-
-static void
-setup (void)
-{
-  tmpdir = g_dir_make_tmp ("pl-export-XXXXXX", NULL);
-  ck_assert_ptr_nonnull (tmpdir);
-}
-
-static void
-teardown (void)
-{
-  g_autoptr (GDir) dir = g_dir_open (tmpdir, 0, NULL);
-  const char *name;
-
-  while (dir != NULL && (name = g_dir_read_name (dir)) != NULL)
-    {
-      g_autofree char *path = g_build_filename (tmpdir, name, NULL);
-
-      g_unlink (path);
-    }
-  g_rmdir (tmpdir);
-  g_clear_pointer (&tmpdir, g_free);
 }
 
 static void
@@ -122,8 +94,8 @@ count (const char *text, const char *needle)
 START_TEST (test_export_action)
 {
   PlWindow *window = open_demo ();
-  g_autofree char *pdf = g_build_filename (tmpdir, "from-action.pdf", NULL);
-  g_autofree char *png = g_build_filename (tmpdir, "from-action.png", NULL);
+  g_autofree char *pdf = g_build_filename (pl_tmpdir, "from-action.pdf", NULL);
+  g_autofree char *png = g_build_filename (pl_tmpdir, "from-action.png", NULL);
   g_autofree char *text = NULL;
   cairo_surface_t *image;
 
@@ -159,30 +131,6 @@ find_dialog (PlWindow *window)
         return w;
     }
   return NULL;
-}
-
-static void
-save_shot (GtkWidget *widget, const char *name)
-{
-  const char *root = g_getenv ("PRESSLINE_BUILD_ROOT");
-  g_autofree char *dir = g_build_filename (root != NULL ? root : ".", "tests", "ui",
-                                           "screenshots", NULL);
-  g_autofree char *path = g_build_filename (dir, name, NULL);
-  int w = gtk_widget_get_width (widget), h = gtk_widget_get_height (widget);
-  g_autoptr (GdkPaintable) paintable = gtk_widget_paintable_new (widget);
-  GtkSnapshot *snapshot = gtk_snapshot_new ();
-  GskRenderer *renderer = gtk_native_get_renderer (gtk_widget_get_native (widget));
-  GskRenderNode *node;
-  g_autoptr (GdkTexture) texture = NULL;
-
-  ck_assert_int_gt (w, 0);
-  gdk_paintable_snapshot (paintable, snapshot, w, h);
-  node = gtk_snapshot_free_to_node (snapshot);
-  texture = gsk_renderer_render_texture (renderer, node, &GRAPHENE_RECT_INIT (0, 0, w, h));
-  gsk_render_node_unref (node);
-  g_mkdir_with_parents (dir, 0755);
-  ck_assert (gdk_texture_save_to_png (texture, path));
-  printf ("artifact: %s\n", path);
 }
 
 /* The menu's action opens the dialog with the format, paper, orientation
@@ -234,7 +182,7 @@ END_TEST
 START_TEST (test_print_export)
 {
   PlWindow *window = open_demo ();
-  g_autofree char *pdf = g_build_filename (tmpdir, "printed.pdf", NULL);
+  g_autofree char *pdf = g_build_filename (pl_tmpdir, "printed.pdf", NULL);
   g_autoptr (GError) error = NULL;
   g_autofree char *text = NULL, *last = NULL;
   GtkPrintOperationResult result;
@@ -267,7 +215,7 @@ export_suite (void)
   TCase *tc = tcase_create ("editor");
 
   tcase_add_unchecked_fixture (tc, app_setup, app_teardown);
-  tcase_add_checked_fixture (tc, setup, teardown);
+  tcase_add_checked_fixture (tc, pl_tmpdir_setup, pl_tmpdir_teardown);
   tcase_set_timeout (tc, 120);
   tcase_add_test (tc, test_export_action);
   tcase_add_test (tc, test_export_dialog);
