@@ -136,7 +136,9 @@ pl_wo_gauges_table (PlWorkOrder *wo)
       if (pl_part_get_part_type (part)->kind == PL_PART_GAUGE)
         pl_wo_table_add_row (t, gauge_row (wo, part));
     }
-  t->note = gauges_note (wo);
+  /* The readings' meaning, where there are readings. */
+  if (t->rows->len > 0)
+    t->note = gauges_note (wo);
   return t;
 }
 
@@ -184,7 +186,8 @@ pl_wo_doses_table (PlWorkOrder *wo)
       if (pl_part_get_part_type (part)->kind == PL_PART_APPLICATOR)
         pl_wo_table_add_row (t, dose_row (wo, part));
     }
-  t->note = g_strdup (_("Shot: the mass of one shot once the firing cycles repeat; from the "
-                        "mean: its difference from the mean shot of all applicators."));
+  if (t->rows->len > 0)
+    t->note = g_strdup (_("Shot: the mass of one shot once the firing cycles repeat; from "
+                          "the mean: its difference from the mean shot of all applicators."));
   return t;
 }
