@@ -6,7 +6,9 @@
 
 #include <glib/gi18n.h>
 #include <locale.h>
+#include <math.h>
 #include <stdio.h>
+#include <string.h>
 
 #include "pl-document.h"
 #include "pl-layout-reader.h"
@@ -14,6 +16,7 @@
 #include "pl-results.h"
 #include "pl-solve-scheduler.h"
 #include "pl-units.h"
+#include "pl-work-order.h"
 
 /* A command of pressline-cli: its name, one line of help, and what runs it
  * (argv[0] is the command's name). */
@@ -26,6 +29,7 @@ typedef struct
 
 static int pl_cli_solve (int argc, char **argv);
 static int pl_cli_check (int argc, char **argv);
+static int pl_cli_export (int argc, char **argv);
 
 /* The one place to add a command. */
 static const PlCliCommand pl_cli_commands[] = {
@@ -33,6 +37,10 @@ static const PlCliCommand pl_cli_commands[] = {
                 "(FILE [--format text|csv|json] [--units si|us])"), pl_cli_solve },
   { "check", N_("Check a layout; exit 1 if a finding of error severity exists (FILE)"),
     pl_cli_check },
+  { "export", N_("Write the work order sheets of a layout (FILE -o OUT.pdf|OUT.svg|OUT.png "
+                 "[--paper a4|letter|a3] [--orientation portrait|landscape] [--dpi N] "
+                 "[--units si|us]); SVG and PNG get a file per sheet, OUT-2.png and so on"),
+    pl_cli_export },
   { NULL, NULL, NULL },
 };
 
@@ -64,6 +72,64 @@ pl_cli_usage_error (const char *command, const char *sentence)
   fprintf (stderr, _("pressline-cli %s: %s\n"), command, sentence);
 }
 
+/* Whether argv[*i] is the option name (or its short form, may be NULL),
+ * given as "--name value" or "--name=value"; then *value is the value
+ * (NULL when missing) and *i moves past it.  "--formats" is not
+ * "--format". */
+static gboolean
+pl_cli_take_option (int argc, char **argv, int *i, const char *name, const char *short_name,
+                    const char **value)
+{
+  const char *arg = argv[*i];
+  size_t n = strlen (name);
+
+  *value = NULL;
+  if (short_name != NULL && g_str_equal (arg, short_name))
+    {
+      if (*i + 1 < argc)
+        *value = argv[++*i];
+      return TRUE;
+    }
+  if (strncmp (arg, name, n) != 0)
+    return FALSE;
+  if (arg[n] == '=')
+    *value = arg + n + 1;
+  else if (arg[n] != '\0')
+    return FALSE;
+  else if (*i + 1 < argc)
+    *value = argv[++*i];
+  return TRUE;
+}
+
+/* An argument no option took: an unknown option, the layout FILE, or one
+ * FILE too many.  FALSE with the message printed when it cannot be used. */
+static gboolean
+pl_cli_take_file (const char *command, const char *arg, const char **filename)
+{
+  if (arg[0] == '-' && arg[1] != '\0')
+    {
+      g_autofree char *msg = g_strdup_printf (_("unknown option “%s”."), arg);
+
+      pl_cli_usage_error (command, msg);
+      return FALSE;
+    }
+  if (*filename != NULL)
+    {
+      pl_cli_usage_error (command, _("only one FILE may be given."));
+      return FALSE;
+    }
+  *filename = arg;
+  return TRUE;
+}
+
+static gboolean
+pl_cli_have_file (const char *command, const char *filename)
+{
+  if (filename == NULL)
+    pl_cli_usage_error (command, _("a layout FILE is needed."));
+  return filename != NULL;
+}
+
 /* solve FILE [--format text|csv|json] [--units si|us]; options may come
  * before or after FILE, as "--format json" or "--format=json".
  * Exit 0 when the report was written (findings of any severity are in the
@@ -81,20 +147,10 @@ pl_cli_solve (int argc, char **argv)
   for (int i = 1; i < argc; i++)
     {
       const char *arg = argv[i], *value = NULL;
-      gboolean is_format = g_str_has_prefix (arg, "--format");
-      gboolean is_units = g_str_has_prefix (arg, "--units");
+      gboolean is_format = pl_cli_take_option (argc, argv, &i, "--format", NULL, &value);
+      gboolean is_units = !is_format
+                          && pl_cli_take_option (argc, argv, &i, "--units", NULL, &value);
 
-      if (is_format || is_units)
-        {
-          const char *rest = arg + (is_format ? 8 : 7);
-
-          if (*rest == '=')
-            value = rest + 1;
-          else if (*rest == '\0' && i + 1 < argc)
-            value = argv[++i];
-          else if (*rest != '\0')
-            is_format = is_units = FALSE;   /* "--formats": an unknown option */
-        }
       if (is_format)
         {
           format = pl_report_format_from_key (value);
@@ -115,26 +171,11 @@ pl_cli_solve (int argc, char **argv)
             }
           pl_unit_prefs_init (&prefs, system);
         }
-      else if (arg[0] == '-' && arg[1] != '\0')
-        {
-          g_autofree char *msg = g_strdup_printf (_("unknown option “%s”."), arg);
-
-          pl_cli_usage_error (argv[0], msg);
-          return 2;
-        }
-      else if (filename == NULL)
-        filename = arg;
-      else
-        {
-          pl_cli_usage_error (argv[0], _("only one FILE may be given."));
-          return 2;
-        }
+      else if (!pl_cli_take_file (argv[0], arg, &filename))
+        return 2;
     }
-  if (filename == NULL)
-    {
-      pl_cli_usage_error (argv[0], _("a layout FILE is needed."));
-      return 2;
-    }
+  if (!pl_cli_have_file (argv[0], filename))
+    return 2;
 
   results = pl_cli_load_and_solve (filename);
   if (results == NULL)
@@ -173,6 +214,132 @@ pl_cli_check (int argc, char **argv)
     }
   fflush (stdout);
   return pl_results_count_findings (results, PLS_SEVERITY_ERROR) > 0 ? 1 : 0;
+}
+
+/* export FILE -o OUT [--paper a4|letter|a3] [--orientation portrait|landscape]
+ * [--dpi N] [--units si|us]: the work order, its format from OUT's
+ * extension.  Every solve runs first (the cycle too), so the sheets can
+ * give the readings while firing.  Exit 0 when written, 2 when the
+ * arguments, the layout or the output cannot be used (nothing is left
+ * half written). */
+static int
+pl_cli_export (int argc, char **argv)
+{
+  const char *filename = NULL, *output = NULL;
+  PlPaper paper = PL_PAPER_A4;
+  PlOrientation orientation = PL_ORIENTATION_PORTRAIT;
+  PlWorkOrderFormat format;
+  PlWorkOrderOptions opts;
+  double dpi = PL_WORK_ORDER_DEFAULT_DPI;
+  gboolean dpi_given = FALSE;
+  g_autoptr (PlDocument) doc = NULL;
+  g_autoptr (PlResults) results = NULL;
+  g_autoptr (PlWorkOrder) wo = NULL;
+  g_autoptr (GError) error = NULL;
+
+  pl_work_order_options_init (&opts);
+  for (int i = 1; i < argc; i++)
+    {
+      const char *arg = argv[i], *value = NULL;
+
+      if (pl_cli_take_option (argc, argv, &i, "--output", "-o", &value))
+        {
+          if (value == NULL || *value == '\0')
+            {
+              pl_cli_usage_error (argv[0], _("-o needs the name of the file to write."));
+              return 2;
+            }
+          output = value;
+        }
+      else if (pl_cli_take_option (argc, argv, &i, "--paper", NULL, &value))
+        {
+          paper = pl_paper_from_key (value);
+          if (paper == PL_N_PAPERS)
+            {
+              pl_cli_usage_error (argv[0], _("--paper takes a4, letter or a3."));
+              return 2;
+            }
+        }
+      else if (pl_cli_take_option (argc, argv, &i, "--orientation", NULL, &value))
+        {
+          orientation = pl_orientation_from_key (value);
+          if (orientation == PL_N_ORIENTATIONS)
+            {
+              pl_cli_usage_error (argv[0], _("--orientation takes portrait or landscape."));
+              return 2;
+            }
+        }
+      else if (pl_cli_take_option (argc, argv, &i, "--dpi", NULL, &value))
+        {
+          char *end = NULL;
+
+          dpi = value != NULL ? g_ascii_strtod (value, &end) : NAN;
+          if (value == NULL || end == value || *end != '\0'
+              || !(dpi >= PL_WORK_ORDER_MIN_DPI && dpi <= PL_WORK_ORDER_MAX_DPI))
+            {
+              g_autofree char *msg = g_strdup_printf (_("--dpi takes a number from %.0f to "
+                                                        "%.0f."), PL_WORK_ORDER_MIN_DPI,
+                                                      PL_WORK_ORDER_MAX_DPI);
+
+              pl_cli_usage_error (argv[0], msg);
+              return 2;
+            }
+          dpi_given = TRUE;
+        }
+      else if (pl_cli_take_option (argc, argv, &i, "--units", NULL, &value))
+        {
+          PlUnitSystem system = pl_unit_system_from_key (value);
+
+          if (system == PL_N_UNIT_SYSTEMS)
+            {
+              pl_cli_usage_error (argv[0], _("--units takes si or us."));
+              return 2;
+            }
+          pl_unit_prefs_init (&opts.units, system);
+        }
+      else if (!pl_cli_take_file (argv[0], arg, &filename))
+        return 2;
+    }
+  if (!pl_cli_have_file (argv[0], filename))
+    return 2;
+  if (output == NULL)
+    {
+      pl_cli_usage_error (argv[0], _("-o OUT.pdf, OUT.svg or OUT.png is needed."));
+      return 2;
+    }
+  format = pl_work_order_format_from_filename (output);
+  if (format == PL_N_WORK_ORDER_FORMATS)
+    {
+      pl_cli_usage_error (argv[0], _("the output's name must end in .pdf, .svg or .png."));
+      return 2;
+    }
+  if (dpi_given && format != PL_WORK_ORDER_PNG)
+    {
+      pl_cli_usage_error (argv[0], _("--dpi is only for PNG output."));
+      return 2;
+    }
+
+  doc = pl_layout_read_file (filename, &error);
+  if (doc == NULL)
+    {
+      fprintf (stderr, "pressline-cli: %s\n", error->message);
+      return 2;
+    }
+  results = pl_solve_scheduler_solve_sync (doc, NULL, &error);
+  if (results == NULL)
+    {
+      fprintf (stderr, "pressline-cli: %s: %s\n", filename, error->message);
+      return 2;
+    }
+  pl_paper_get_size (paper, orientation, &opts.width_mm, &opts.height_mm);
+  opts.file_name = filename;
+  wo = pl_work_order_new (doc, results, &opts);
+  if (!pl_work_order_write (wo, format, dpi, output, &error))
+    {
+      fprintf (stderr, "pressline-cli: %s\n", error->message);
+      return 2;
+    }
+  return 0;
 }
 
 static void

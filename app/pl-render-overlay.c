@@ -288,7 +288,7 @@ boxed_text (PlRenderCtx *ctx, const char *text, double x, double y, gboolean bol
  * mean at two thirds of the bar (so +50 % still fits), the deviation in
  * figures after it, coloured by the scenario's uniformity tolerance. */
 static double
-dose_bar (PlRenderCtx *ctx, const PlPart *part, double x, double y)
+dose_bar (PlRenderCtx *ctx, const PlPart *part, double x, double y, gboolean up)
 {
   const double width = 18.0, height = 3.0, mean_at = 12.0;
   double mass, dev, size = pl_render_text_size (ctx, PL_RENDER_VALUE_MM), w, h;
@@ -312,8 +312,35 @@ dose_bar (PlRenderCtx *ctx, const PlPart *part, double x, double y)
   cairo_stroke (ctx->cr);
   if (size == 0.0)
     return height;
-  /* Translators: a shot's deviation from the mean of all shots, in %. */
-  text = g_strdup_printf (_("%+.1f %%"), 100.0 * dev);
+  if (ctx->opts->show_dose_details)
+    {
+      g_autofree char *m = pl_unit_format (mass, PL_QUANTITY_MASS, ctx->opts->units, 3,
+                                           PL_UNIT_DECIMAL_FROM_LOCALE);
+      g_autofree char *pr = NULL;
+      double p;
+
+      if (pl_render_port_pressure (ctx, pl_part_get_id (part), "in", &p))
+        pr = pl_unit_format (p, PL_QUANTITY_PRESSURE, ctx->opts->units, 3,
+                             PL_UNIT_DECIMAL_FROM_LOCALE);
+      /* Translators: a shot's mass and its deviation from the mean of all
+       * shots, "0.449 g, +0.2 %". */
+      text = g_strdup_printf (_("%s, %+.1f %%"), m, 100.0 * dev);
+      if (pr != NULL)
+        {
+          char *both = g_strconcat (pr, "\n", text, NULL);
+
+          g_free (text);
+          text = both;
+        }
+      /* Under the bar (over it when the labels stand above the part), so
+       * that the figures keep to the applicator's own width. */
+      pl_render_layout_text (ctx, text, size, fabs (dev) > ctx->uniformity, &w, &h);
+      pl_render_show_layout (ctx, x, up ? y - h - 1.2 : y + height + 1.2, &ctx->pal->text);
+      return height + 1.2 + h;
+    }
+  else
+    /* Translators: a shot's deviation from the mean of all shots, in %. */
+    text = g_strdup_printf (_("%+.1f %%"), 100.0 * dev);
   pl_render_layout_text (ctx, text, size, fabs (dev) > ctx->uniformity, &w, &h);
   pl_render_show_layout (ctx, x + width + 1.0, y + 0.5 * height - 0.5 * h, &ctx->pal->text);
   return MAX (height, h);
@@ -343,7 +370,7 @@ pl_render_part_overlay (PlRenderCtx *ctx, const PlPart *part, const PlRect *labe
                   up ? y - h : y, TRUE, NULL);
     }
   else if (type->kind == PL_PART_APPLICATOR)
-    dose_bar (ctx, part, x, up ? y - 3.0 : y + 0.6);
+    dose_bar (ctx, part, x, up ? y - 3.0 : y + 0.6, up);
 }
 
 void
@@ -442,7 +469,8 @@ pl_render_legend (cairo_t *cr, double x, double y, double width, double height, 
   cairo_set_source_rgba (cr, pal->text.r, pal->text.g, pal->text.b, 1.0);
   pango_cairo_show_layout (cr, layout);
 
-  bar_y = y + 0.5 * pad + 1.25 * title;
+  /* Below the title with its descenders (about 1.2 of its size). */
+  bar_y = y + 0.5 * pad + 1.4 * title;
   ramp = cairo_pattern_create_linear (x + pad, 0, x + width - pad, 0);
   for (int i = 0; i <= 32; i++)
     {

@@ -20,6 +20,9 @@ G_BEGIN_DECLS
 #define PL_RENDER_VALUE_MM 2.8       /* its key value */
 #define PL_RENDER_MIN_TEXT_PX 7.0
 #define PL_RENDER_HIDE_TEXT_PX 3.5
+/* The smallest text on paper, 1.8 mm (about 5 pt), still read with the
+ * sheet in hand (common practice, no source). */
+#define PL_RENDER_PAPER_TEXT_MM 1.8
 #define PL_RENDER_PORT_MM 1.3        /* radius of a port circle */
 
 /* One draw. */

@@ -25,6 +25,61 @@ pl_render_options_init (PlRenderOptions *opts)
   };
 }
 
+static gboolean
+key_port_place_taken (const PlPart *part, const char *key, PlResults *results,
+                      GHashTable *nodes, GArray *places)
+{
+  PlPoint p;
+  int node = -1;
+
+  if (!pl_part_get_port_position (part, key, &p))
+    return TRUE;
+  if (results != NULL)
+    node = pl_compiled_get_port_node (pl_results_get_compiled (results),
+                                      pl_part_get_id (part), key);
+  if (node >= 0 && !g_hash_table_add (nodes, GINT_TO_POINTER (node + 1)))
+    return TRUE;
+  for (guint i = 0; i < places->len; i++)
+    {
+      const PlPoint *q = &g_array_index (places, PlPoint, i);
+
+      if (fabs (p.x - q->x) < 1e-6 && fabs (p.y - q->y) < 1e-6)
+        return TRUE;
+    }
+  g_array_append_val (places, p);
+  return FALSE;
+}
+
+GArray *
+pl_render_key_ports (PlDocument *doc, PlResults *results, GHashTable *selection)
+{
+  GArray *ports = g_array_new (FALSE, FALSE, sizeof (PlPortRef));
+  g_autoptr (GArray) places = g_array_new (FALSE, FALSE, sizeof (PlPoint));
+  g_autoptr (GHashTable) nodes = g_hash_table_new (g_direct_hash, g_direct_equal);
+
+  g_return_val_if_fail (doc != NULL, ports);
+  for (guint i = 0; i < pl_document_get_n_parts (doc); i++)
+    {
+      const PlPart *part = pl_document_get_part (doc, i);
+      const PlPartType *type = pl_part_get_part_type (part);
+      gboolean selected = selection != NULL
+                          && g_hash_table_contains (selection, pl_part_get_id (part));
+      gboolean want = selected || type->kind == PL_PART_APPLICATOR
+                      || type->kind == PL_PART_PUMP;
+
+      if (!want || type->kind == PL_PART_GAUGE)
+        continue;
+      for (guint k = 0; k < type->n_ports; k++)
+        if (!key_port_place_taken (part, type->ports[k].key, results, nodes, places))
+          {
+            PlPortRef ref = { pl_part_get_id (part), type->ports[k].key };
+
+            g_array_append_val (ports, ref);
+          }
+    }
+  return ports;
+}
+
 /* --- helpers shared with the other files --- */
 
 void
@@ -51,6 +106,8 @@ pl_render_text_size (PlRenderCtx *ctx, double mm)
   double floor_px = ctx->opts->min_text_px > 0.0 ? ctx->opts->min_text_px
                                                  : PL_RENDER_MIN_TEXT_PX;
 
+  if (ctx->opts->paper_scale > 0.0)
+    return MAX (mm, PL_RENDER_PAPER_TEXT_MM / ctx->opts->paper_scale);
   if (mm * ctx->scale < PL_RENDER_HIDE_TEXT_PX && !(ctx->opts->min_text_px > 0.0))
     return 0.0;
   return MAX (mm, floor_px * ctx->px);

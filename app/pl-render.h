@@ -81,7 +81,25 @@ typedef struct
   double min_text_px;                /* smallest text drawn (device px), for
                                       * a screen read from afar; <= 0: the
                                       * renderer's own floor */
+  gboolean show_dose_details;        /* a dose bar's figures give the inlet
+                                      * pressure and the shot's mass before its
+                                      * deviation (sheets, where a label at the
+                                      * inlet would meet the line's text) */
+  double paper_scale;                /* sheets: mm of paper per mm of drawing.
+                                      * Text is then never hidden and never
+                                      * under PL_RENDER_PAPER_TEXT_MM on the
+                                      * paper, whatever the device; 0: the
+                                      * screen's pixel rules */
 } PlRenderOptions;
+
+/* The ports whose pressure a drawing labels (PlRenderOptions'
+ * pressure_ports): every applicator's inlet and every pump's outlet (the
+ * two ends a designer compares) and each port of the parts in selection (a
+ * set of ids, or NULL); gauges are labelled by the renderer anyway.  Ports
+ * on one hydraulic node of results (may be NULL), or on one spot, are
+ * labelled once: two labels there would print over each other.  A new
+ * array of PlPortRef borrowing doc's strings (valid until doc changes). */
+GArray *pl_render_key_ports (PlDocument *doc, PlResults *results, GHashTable *selection);
 
 /* Light style, SI, background, grid and legend on, ports off, no
  * selection, steady-open pressures, no replay, automatic ramp. */

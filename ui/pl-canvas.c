@@ -73,8 +73,6 @@ struct _PlCanvas
   char *wire_port;
   GArray *highlight;           /* PlPortRef, borrowed from doc */
   GArray *pressure_ports;      /* PlPortRef, borrowed from doc */
-  GArray *pressure_places;     /* PlPoint of each labelled port */
-  GHashTable *pressure_nodes;  /* solver node + 1 of each labelled port */
   gboolean space_down;
   double pan_last_x, pan_last_y;
   double pinch_last_scale;
@@ -182,65 +180,20 @@ pl_canvas_select_only (PlCanvas *self, const char *id)
   pl_canvas_selection_changed (self);
 }
 
-/* Whether a labelled port already sits where this one does: two ports
- * joined end to end (a pump's outlet and a hose's end) are one node, and
- * two labels on one spot would print over each other. */
-static gboolean
-pl_canvas_port_place_taken (PlCanvas *self, const PlPart *part, const char *key)
-{
-  PlPoint p;
-  int node = -1;
-
-  if (!pl_part_get_port_position (part, key, &p))
-    return TRUE;
-  /* Ports on one hydraulic node read the same: label the first only. */
-  if (self->shown != NULL && !self->shown_stale)
-    node = pl_compiled_get_port_node (pl_results_get_compiled (self->shown),
-                                      pl_part_get_id (part), key);
-  if (node >= 0 && !g_hash_table_add (self->pressure_nodes, GINT_TO_POINTER (node + 1)))
-    return TRUE;
-  for (guint i = 0; i < self->pressure_places->len; i++)
-    {
-      const PlPoint *q = &g_array_index (self->pressure_places, PlPoint, i);
-      if (fabs (p.x - q->x) < 1e-6 && fabs (p.y - q->y) < 1e-6)
-        return TRUE;
-    }
-  g_array_append_val (self->pressure_places, p);
-  return FALSE;
-}
-
-/* Ports whose pressure is labelled: every applicator's inlet and every
- * pump's outlet (the two ends a designer compares), and each port of the
- * selected parts.  Gauges are labelled by the renderer anyway. */
+/* Ports whose pressure is labelled: the renderer's key ports (pump
+ * outlets, applicator inlets) and each port of the selected parts. */
 static void
 pl_canvas_update_pressure_ports (PlCanvas *self)
 {
-  guint n;
-
-  g_array_set_size (self->pressure_ports, 0);
-  g_array_set_size (self->pressure_places, 0);
-  g_hash_table_remove_all (self->pressure_nodes);
+  g_clear_pointer (&self->pressure_ports, g_array_unref);
   if (self->doc == NULL)
-    return;
-  n = pl_document_get_n_parts (self->doc);
-  for (guint i = 0; i < n; i++)
     {
-      const PlPart *part = pl_document_get_part (self->doc, i);
-      const PlPartType *type = pl_part_get_part_type (part);
-      gboolean selected = g_hash_table_contains (self->selection, pl_part_get_id (part));
-
-      for (guint k = 0; k < type->n_ports; k++)
-        {
-          gboolean want = selected || type->kind == PL_PART_APPLICATOR
-                          || type->kind == PL_PART_PUMP;
-          if (want && type->kind != PL_PART_GAUGE
-              && !pl_canvas_port_place_taken (self, part, type->ports[k].key))
-            {
-              PlPortRef ref = { pl_part_get_id (part), type->ports[k].key };
-              g_array_append_val (self->pressure_ports, ref);
-            }
-        }
+      self->pressure_ports = g_array_new (FALSE, FALSE, sizeof (PlPortRef));
+      return;
     }
+  self->pressure_ports = pl_render_key_ports (self->doc,
+                                              self->shown_stale ? NULL : self->shown,
+                                              self->selection);
 }
 
 /* Ports a wire from (wire_part, wire_port) may end on: every port of every
@@ -851,8 +804,6 @@ pl_canvas_finalize (GObject *object)
   g_hash_table_unref (self->selection);
   g_array_unref (self->highlight);
   g_array_unref (self->pressure_ports);
-  g_array_unref (self->pressure_places);
-  g_hash_table_unref (self->pressure_nodes);
   g_free (self->hover_id);
   g_free (self->wire_part);
   g_free (self->wire_port);
@@ -898,8 +849,6 @@ pl_canvas_init (PlCanvas *self)
   self->selection = g_hash_table_new_full (g_str_hash, g_str_equal, g_free, NULL);
   self->highlight = g_array_new (FALSE, FALSE, sizeof (PlPortRef));
   self->pressure_ports = g_array_new (FALSE, FALSE, sizeof (PlPortRef));
-  self->pressure_places = g_array_new (FALSE, FALSE, sizeof (PlPoint));
-  self->pressure_nodes = g_hash_table_new (NULL, NULL);
   pl_unit_prefs_init (&self->units, PL_UNIT_SYSTEM_SI);
   self->style = PL_RENDER_STYLE_LIGHT;
   self->frame_stats = g_getenv ("PRESSLINE_FRAME_STATS") != NULL;

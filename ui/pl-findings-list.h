@@ -1,29 +1,17 @@
 /* SPDX-License-Identifier: GPL-3.0-or-later
  *
- * pl-findings-list.h: the sentences the results panel shows for findings.
- *
- * The solver writes its findings in English with fixed units; the figure
- * and its limit travel with each finding in SI.  Here every known code gets
- * a translatable sentence that names the part by its tag and restates the
- * figures in the user's units.  Codes this file does not know (and the
- * findings app/ writes itself, already translated) keep their message.
+ * pl-findings-list.h: how the results panel marks findings.  The sentences
+ * themselves come from app/ (pl-finding-text.h), shared with the work order.
  */
 #pragma once
 
 #include <gtk/gtk.h>
 
-#include "pl-results.h"
-#include "pl-units.h"
+#include "pl-finding-text.h"
 
 G_BEGIN_DECLS
 
-/* The sentence for finding (one of results' findings; results gives the
- * tags and the check limits).  prefs may be NULL (SI).  Newly allocated. */
-char *pl_finding_format_sentence (const PlFinding *finding, PlResults *results,
-                                  const PlUnitPrefs *prefs);
 /* A themed icon name for the severity. */
 const char *pl_finding_get_icon_name (pls_severity severity);
-/* Translated severity word, "Error", "Warning", "Note". */
-const char *pl_finding_get_severity_label (pls_severity severity);
 
 G_END_DECLS

@@ -13,9 +13,10 @@
 
 #include <glib/gi18n.h>
 
-#include "pl-window-private.h"
-
+#include "pl-export-dialog.h"
 #include "pl-presentation.h"
+#include "pl-print.h"
+#include "pl-window-private.h"
 
 /* One step of the zoom keys and menu items: five steps double the zoom
  * (1.25^3 = 1.95), a common practice in drawing programs, no source. */
@@ -59,6 +60,37 @@ action_present (GtkWidget *widget, const char *name, GVariant *param)
   gtk_window_present (GTK_WINDOW (pl_presentation_new (GTK_WINDOW (self), self->doc,
                                                        self->undo, self->scheduler,
                                                        &self->units, TRUE)));
+}
+
+static void
+action_export_work_order (GtkWidget *widget, const char *name, GVariant *param)
+{
+  pl_export_dialog_show (PL_WINDOW (widget));
+}
+
+/* The export without its dialog, to a path, with the dialog's last
+ * settings (for scripts and tests). */
+static void
+action_export_work_order_to (GtkWidget *widget, const char *name, GVariant *param)
+{
+  g_autoptr (GFile) file = g_file_new_for_path (g_variant_get_string (param, NULL));
+  g_autoptr (GError) error = NULL;
+
+  if (!pl_export_dialog_write (PL_WINDOW (widget), file, pl_export_dialog_get_settings (),
+                               &error))
+    pl_file_ops_show_error (PL_WINDOW (widget), _("The work order could not be exported"),
+                            error->message);
+}
+
+static void
+action_print (GtkWidget *widget, const char *name, GVariant *param)
+{
+  g_autoptr (GError) error = NULL;
+
+  if (pl_print_run (PL_WINDOW (widget), GTK_PRINT_OPERATION_ACTION_PRINT_DIALOG, NULL, &error)
+      == GTK_PRINT_OPERATION_RESULT_ERROR)
+    pl_file_ops_show_error (PL_WINDOW (widget), _("The work order could not be printed"),
+                            error != NULL ? error->message : "");
 }
 
 static void
@@ -155,6 +187,11 @@ pl_window_class_install_actions (GtkWidgetClass *widget_class)
   gtk_widget_class_install_action (widget_class, "win.save", NULL, action_save);
   gtk_widget_class_install_action (widget_class, "win.save-as", NULL, action_save_as);
   gtk_widget_class_install_action (widget_class, "win.present", NULL, action_present);
+  gtk_widget_class_install_action (widget_class, "win.export-work-order", NULL,
+                                   action_export_work_order);
+  gtk_widget_class_install_action (widget_class, "win.export-work-order-to", "s",
+                                   action_export_work_order_to);
+  gtk_widget_class_install_action (widget_class, "win.print", NULL, action_print);
   gtk_widget_class_install_action (widget_class, "win.undo", NULL, action_undo);
   gtk_widget_class_install_action (widget_class, "win.redo", NULL, action_redo);
   gtk_widget_class_install_action (widget_class, "win.delete", NULL, action_delete);
@@ -182,6 +219,7 @@ pl_window_set_accels (GtkApplication *app)
     { "win.open", { "<Control>o", NULL } },
     { "win.save", { "<Control>s", NULL } },
     { "win.save-as", { "<Control><Shift>s", NULL } },
+    { "win.print", { "<Control>p", NULL } },
     { "win.undo", { "<Control>z", NULL } },
     { "win.redo", { "<Control><Shift>z", "<Control>y", NULL } },
     { "win.zoom-in", { "<Control>plus", "<Control>equal", "<Control>KP_Add", NULL } },

@@ -1,7 +1,8 @@
 /* SPDX-License-Identifier: GPL-3.0-or-later
  *
  * pl-window-private.h: what pl-window.c shares with its companions
- * pl-window-actions.c and pl-file-ops.c.  Not for other files.
+ * pl-window-actions.c, pl-file-ops.c, pl-export-dialog.c and pl-print.c.
+ * Not for other files.
  */
 #pragma once
 

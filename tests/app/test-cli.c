@@ -10,6 +10,7 @@
 
 #include "pl-check.h"
 #include "pl-json-parse.h"
+#include "pl-spawn-cli.h"
 
 #include "pl-cli.h"
 #include "pl-compile.h"
@@ -80,45 +81,6 @@ START_TEST (test_cli_version_text)
 END_TEST
 
 /* --- the built program on the samples --- */
-
-typedef struct
-{
-  int status;          /* exit code */
-  char *out;
-  char *err;
-} CliRun;
-
-static void
-cli_run_clear (CliRun *r)
-{
-  g_free (r->out);
-  g_free (r->err);
-}
-
-/* Runs build/app/pressline-cli with up to six arguments (NULL-ended). */
-static CliRun
-spawn_cli (const char *a0, const char *a1, const char *a2, const char *a3, const char *a4)
-{
-  g_autofree char *cli = g_build_filename (g_getenv ("PRESSLINE_BUILD_ROOT"), "app",
-                                           "pressline-cli", NULL);
-  const char *argv[] = { cli, a0, a1, a2, a3, a4, NULL };
-  g_autoptr (GError) error = NULL;
-  CliRun r = { 0 };
-  int wait_status = 0;
-
-  ck_assert_msg (g_spawn_sync (NULL, (char **) argv, NULL, G_SPAWN_DEFAULT, NULL, NULL,
-                               &r.out, &r.err, &wait_status, &error),
-                 "cannot run %s: %s", cli, error ? error->message : "");
-  ck_assert_msg (WIFEXITED (wait_status), "pressline-cli did not exit normally (crash?)");
-  r.status = WEXITSTATUS (wait_status);
-  return r;
-}
-
-static char *
-sample_path (const char *name)
-{
-  return g_build_filename (g_getenv ("PRESSLINE_SOURCE_ROOT"), "samples", name, NULL);
-}
 
 typedef struct
 {

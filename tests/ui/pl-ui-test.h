@@ -3,11 +3,11 @@
  * pl-ui-test.h: what a GTK suite needs besides Check: turning the main
  * loop for a while, waiting for a window's full results, and writing a
  * widget's rendering to BUILD/tests/ui/screenshots; making the
- * application.  (test-editor.c and test-window.c still keep their own
- * copies of some of these.)
+ * application.  Header-only, tests only.
  */
 #pragma once
 
+#include <glib/gstdio.h>
 #include <gtk/gtk.h>
 #include <stdio.h>
 
@@ -69,19 +69,16 @@ pl_ui_test_wait_for_full (PlWindow *window)
   ck_abort_msg ("no full results within 60 s");
 }
 
-static inline void
-pl_ui_test_save_shot (GtkWidget *widget, const char *name)
+/* What a widget shows, rendered by its own renderer. */
+static inline GdkTexture *
+pl_ui_test_render_widget (GtkWidget *widget)
 {
-  const char *root = g_getenv ("PRESSLINE_BUILD_ROOT");
-  g_autofree char *dir = g_build_filename (root != NULL ? root : ".", "tests", "ui",
-                                           "screenshots", NULL);
-  g_autofree char *path = g_build_filename (dir, name, NULL);
   int w = gtk_widget_get_width (widget), h = gtk_widget_get_height (widget);
   g_autoptr (GdkPaintable) paintable = gtk_widget_paintable_new (widget);
   GtkSnapshot *snapshot = gtk_snapshot_new ();
-  GskRenderer *renderer = gtk_native_get_renderer (gtk_widget_get_native (widget));
   GskRenderNode *node;
-  g_autoptr (GdkTexture) texture = NULL;
+  GskRenderer *renderer = gtk_native_get_renderer (gtk_widget_get_native (widget));
+  GdkTexture *texture;
 
   ck_assert_int_gt (w, 0);
   gdk_paintable_snapshot (paintable, snapshot, w, h);
@@ -89,7 +86,22 @@ pl_ui_test_save_shot (GtkWidget *widget, const char *name)
   ck_assert_ptr_nonnull (node);
   texture = gsk_renderer_render_texture (renderer, node, &GRAPHENE_RECT_INIT (0, 0, w, h));
   gsk_render_node_unref (node);
+  return texture;
+}
+
+/* Saves what a widget shows as BUILD/tests/ui/screenshots/NAME (PNG) and
+ * names the file in the test log. */
+static inline void
+pl_ui_test_save_shot (GtkWidget *widget, const char *name)
+{
+  const char *root = g_getenv ("PRESSLINE_BUILD_ROOT");
+  g_autofree char *dir = g_build_filename (root != NULL ? root : ".", "tests", "ui",
+                                           "screenshots", NULL);
+  g_autofree char *path = g_build_filename (dir, name, NULL);
+  g_autoptr (GdkTexture) texture = pl_ui_test_render_widget (widget);
+
   g_mkdir_with_parents (dir, 0755);
   ck_assert_msg (gdk_texture_save_to_png (texture, path), "cannot write %s", path);
-  printf ("artifact: %s (%d x %d)\n", path, w, h);
+  printf ("artifact: %s (%d x %d)\n", path, gdk_texture_get_width (texture),
+          gdk_texture_get_height (texture));
 }

@@ -20,6 +20,7 @@
 #include "pl-application.h"
 #include "pl-canvas.h"
 #include "pl-check.h"
+#include "pl-ui-test.h"
 #include "pl-command.h"
 #include "pl-geometry.h"
 #include "pl-layout-reader.h"
@@ -33,15 +34,9 @@ static PlApplication *app;
 static void
 app_setup (void)
 {
-  g_autoptr (GError) error = NULL;
-
   /* Frame statistics of the canvas (read when a canvas is made). */
   g_setenv ("PRESSLINE_FRAME_STATS", "1", TRUE);
-  app = pl_application_new ();
-  g_application_set_flags (G_APPLICATION (app),
-                           G_APPLICATION_HANDLES_OPEN | G_APPLICATION_NON_UNIQUE);
-  ck_assert_msg (g_application_register (G_APPLICATION (app), NULL, &error),
-                 "register: %s", error ? error->message : "");
+  app = pl_ui_test_app_new ();
 }
 
 static void
@@ -785,25 +780,6 @@ END_TEST
 
 /* --- screenshots --- */
 
-static GdkTexture *
-render_widget (GtkWidget *widget)
-{
-  int w = gtk_widget_get_width (widget), h = gtk_widget_get_height (widget);
-  g_autoptr (GdkPaintable) paintable = gtk_widget_paintable_new (widget);
-  GtkSnapshot *snapshot = gtk_snapshot_new ();
-  GskRenderNode *node;
-  GskRenderer *renderer = gtk_native_get_renderer (gtk_widget_get_native (widget));
-  GdkTexture *texture;
-
-  ck_assert_int_gt (w, 0);
-  gdk_paintable_snapshot (paintable, snapshot, w, h);
-  node = gtk_snapshot_free_to_node (snapshot);
-  ck_assert_ptr_nonnull (node);
-  texture = gsk_renderer_render_texture (renderer, node, &GRAPHENE_RECT_INIT (0, 0, w, h));
-  gsk_render_node_unref (node);
-  return texture;
-}
-
 /* Mean luma (Rec. 709 weights) of a texture, 0..1. */
 static double
 mean_luma (GdkTexture *texture)
@@ -819,20 +795,6 @@ mean_luma (GdkTexture *texture)
   return sum / ((double) w * h * 255.0);
 }
 
-static void
-save_shot (GtkWidget *widget, const char *name)
-{
-  const char *root = g_getenv ("PRESSLINE_BUILD_ROOT");
-  g_autofree char *dir = g_build_filename (root != NULL ? root : ".", "tests", "ui",
-                                           "screenshots", NULL);
-  g_autofree char *path = g_build_filename (dir, name, NULL);
-  g_autoptr (GdkTexture) texture = render_widget (widget);
-
-  g_mkdir_with_parents (dir, 0755);
-  ck_assert_msg (gdk_texture_save_to_png (texture, path), "cannot write %s", path);
-  printf ("artifact: %s\n", path);
-}
-
 START_TEST (test_screenshots)
 {
   GtkSettings *settings = gtk_settings_get_default ();
@@ -845,9 +807,9 @@ START_TEST (test_screenshots)
   wait_for_full (window);
   pl_canvas_select (canvas, ids);
   spin (100);
-  save_shot (GTK_WIDGET (window), "window-light.png");
+  pl_ui_test_save_shot (GTK_WIDGET (window), "window-light.png");
   {
-    g_autoptr (GdkTexture) t = render_widget (GTK_WIDGET (canvas));
+    g_autoptr (GdkTexture) t = pl_ui_test_render_widget (GTK_WIDGET (canvas));
     light = mean_luma (t);
   }
   /* High zoom at the gauge. */
@@ -856,17 +818,17 @@ START_TEST (test_screenshots)
     port_on_screen (window, gauge, "p", &s);
     pl_canvas_zoom_at (canvas, 4.0, s.x, s.y);
     spin (50);
-    save_shot (GTK_WIDGET (window), "window-light-zoom.png");
+    pl_ui_test_save_shot (GTK_WIDGET (window), "window-light-zoom.png");
   }
   g_object_set (settings, "gtk-application-prefer-dark-theme", TRUE, NULL);
   ck_assert_int_eq (pl_canvas_get_style (canvas), PL_RENDER_STYLE_DARK);
   spin (100);
-  save_shot (GTK_WIDGET (window), "window-dark-zoom.png");
+  pl_ui_test_save_shot (GTK_WIDGET (window), "window-dark-zoom.png");
   activate (window, "win.zoom-fit");
   spin (100);
-  save_shot (GTK_WIDGET (window), "window-dark.png");
+  pl_ui_test_save_shot (GTK_WIDGET (window), "window-dark.png");
   {
-    g_autoptr (GdkTexture) t = render_widget (GTK_WIDGET (canvas));
+    g_autoptr (GdkTexture) t = pl_ui_test_render_widget (GTK_WIDGET (canvas));
     dark = mean_luma (t);
   }
   g_object_set (settings, "gtk-application-prefer-dark-theme", FALSE, NULL);

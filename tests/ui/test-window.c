@@ -6,6 +6,7 @@
 
 #include "pl-application.h"
 #include "pl-check.h"
+#include "pl-ui-test.h"
 #include "pl-window.h"
 
 static PlApplication *app;
@@ -13,14 +14,7 @@ static PlApplication *app;
 static void
 app_setup (void)
 {
-  g_autoptr (GError) error = NULL;
-
-  app = pl_application_new ();
-  /* No need to own the bus name in a test; registering runs startup. */
-  g_application_set_flags (G_APPLICATION (app),
-                           G_APPLICATION_HANDLES_OPEN | G_APPLICATION_NON_UNIQUE);
-  ck_assert_msg (g_application_register (G_APPLICATION (app), NULL, &error),
-                 "register: %s", error ? error->message : "");
+  app = pl_ui_test_app_new ();
 }
 
 static void

@@ -1,0 +1,682 @@
+/* SPDX-License-Identifier: GPL-3.0-or-later
+ *
+ * test-work-order.c: the work order as a technician gets it: the PDF's text
+ * (pdftotext) holds the title block, every gauge with the solver's readings,
+ * every finding and the cautions; the SVG parses and holds the same; the
+ * PNG has the size paper and resolution imply; every paper and
+ * orientation renders; bad arguments exit 2 and write nothing.
+ */
+#include "config.h"
+
+#include <cairo.h>
+#include <glib.h>
+#include <glib/gstdio.h>
+#include <libxml/parser.h>
+#include <libxml/tree.h>
+#include <math.h>
+#include <string.h>
+
+#include "pl-check.h"
+#include "pl-json-parse.h"
+#include "pl-spawn-cli.h"
+#include "pl-tmpdir.h"
+
+#include "pl-command.h"
+#include "pl-compile.h"
+#include "pl-finding-text.h"
+#include "pl-layout-reader.h"
+#include "pl-layout-writer.h"
+#include "pl-results.h"
+#include "pl-solve-scheduler.h"
+#include "pl-work-order.h"
+
+/* White space of any kind and length as one space: pdftotext breaks lines
+ * where the sheet wraps them. */
+static char *
+squeeze (const char *text)
+{
+  GString *out = g_string_new (NULL);
+  gboolean space = FALSE;
+
+  for (const char *p = text; *p != '\0'; p++)
+    {
+      if (g_ascii_isspace (*p))
+        space = TRUE;
+      else
+        {
+          if (space && out->len > 0)
+            g_string_append_c (out, ' ');
+          space = FALSE;
+          g_string_append_c (out, *p);
+        }
+    }
+  return g_string_free (out, FALSE);
+}
+
+static void
+assert_holds (const char *haystack, const char *needle, const char *where)
+{
+  g_autofree char *h = squeeze (haystack);
+  g_autofree char *n = squeeze (needle);
+
+  ck_assert_msg (strstr (h, n) != NULL, "%s does not hold “%s”", where, n);
+}
+
+static char *
+pdftotext (const char *pdf, gboolean layout)
+{
+  const char *argv[] = { "pdftotext", "-enc", "UTF-8", layout ? "-layout" : "-raw", pdf, "-",
+                         NULL };
+  g_autoptr (GError) error = NULL;
+  char *out = NULL;
+  int status = 0;
+
+  ck_assert_msg (g_spawn_sync (NULL, (char **) argv, NULL, G_SPAWN_SEARCH_PATH, NULL, NULL,
+                               &out, NULL, &status, &error),
+                 "pdftotext: %s", error ? error->message : "");
+  ck_assert_msg (g_spawn_check_wait_status (status, NULL), "pdftotext failed on %s", pdf);
+  return out;
+}
+
+/* --- the layouts checked --- */
+
+/* The demo line with every title field filled in (one in Cyrillic and
+ * Japanese, so that non-Latin text is shown to reach the sheet) and a
+ * second gauge at the pump: a scenario of our own. */
+static PlDocument *
+filled_demo (void)
+{
+  g_autofree char *path = sample_path ("demo-glue-line.pline");
+  g_autoptr (GError) error = NULL;
+  PlDocument *doc = pl_layout_read_file (path, &error);
+  static const char *const fields[][2] = {
+    { "site", "Werk Süd, hall 3" },
+    { "author", "Линия клея 接着剤" },
+    { "date", "2026-11-30" },
+    { "revision", "C" },
+  };
+
+  ck_assert_msg (doc != NULL, "%s", error ? error->message : "");
+  for (guint i = 0; i < G_N_ELEMENTS (fields); i++)
+    {
+      g_autoptr (PlCommand) cmd = pl_command_new_set_title_field (fields[i][0], fields[i][1]);
+
+      ck_assert (pl_command_apply (cmd, doc, NULL));
+    }
+  {
+    g_autoptr (PlCommand) add = pl_command_new_add_part ("gauge", "p90", -160.0, 110.0);
+    g_autoptr (PlCommand) wire = pl_command_new_add_wire (NULL, "p90", "p", "p1", "out", NULL,
+                                                          0);
+
+    ck_assert (pl_command_apply (add, doc, &error));
+    ck_assert_msg (pl_command_apply (wire, doc, &error), "%s", error ? error->message : "");
+  }
+  return doc;
+}
+
+typedef struct
+{
+  const char *sample;    /* NULL: filled_demo () */
+} LayoutCase;
+
+static const LayoutCase layouts[] = {
+  { "demo-glue-line.pline" },
+  { "carton-sealer-starved.pline" },
+  { "carton-sealer-retrofit.pline" },
+  { NULL },
+};
+
+/* The layout of a case as a file the command line can read. */
+static char *
+layout_file (const LayoutCase *c)
+{
+  g_autoptr (PlDocument) doc = NULL;
+  g_autoptr (GError) error = NULL;
+  char *path;
+
+  if (c->sample != NULL)
+    return sample_path (c->sample);
+  doc = filled_demo ();
+  path = pl_tmpdir_path ("filled-demo.pline");
+  ck_assert_msg (pl_layout_write_file (doc, path, &error), "%s", error ? error->message : "");
+  return path;
+}
+
+static TjValue *
+solve_json (const char *path)
+{
+  CliRun r = spawn_cli ("solve", path, "--format", "json", NULL);
+  TjValue *root;
+
+  ck_assert_msg (r.status == 0, "solve %s: exit %d: %s", path, r.status, r.err);
+  root = tj_parse (r.out);
+  ck_assert_msg (root != NULL, "solve %s: not JSON", path);
+  cli_run_clear (&r);
+  return root;
+}
+
+/* The title block's fields as the document has them; the file's name and
+ * the program's version. */
+static void
+assert_title_block (const char *text, PlDocument *doc, const char *path, const char *where)
+{
+  static const char *const keys[] = { "work-order", "line", "site", "author", "date",
+                                      "revision" };
+  g_autofree char *base = g_path_get_basename (path);
+
+  for (guint i = 0; i < G_N_ELEMENTS (keys); i++)
+    {
+      const char *value = pl_part_get_text (pl_document_get_title (doc), keys[i]);
+
+      if (*value != '\0')
+        assert_holds (text, value, where);
+    }
+  assert_holds (text, base, where);
+  assert_holds (text, "Pressline " PACKAGE_VERSION, where);
+}
+
+/* The cautions the house rules ask for, in the sheet's words. */
+static void
+assert_cautions (const char *text, const char *where)
+{
+  static const char *const phrases[] = {
+    "Injection hazard", "fluid at high pressure can pierce the skin",
+    "accumulators and hoses hold fluid under pressure",
+    "lock out the air and drain the line", "verify zero pressure on a gauge",
+    "local codes and qualified practice govern",
+  };
+
+  for (guint i = 0; i < G_N_ELEMENTS (phrases); i++)
+    assert_holds (text, phrases[i], where);
+}
+
+static void
+assert_findings (const char *text, PlResults *results, const char *where)
+{
+  PlUnitPrefs si;
+
+  pl_unit_prefs_init (&si, PL_UNIT_SYSTEM_SI);
+  for (guint i = 0; i < pl_results_get_n_findings (results); i++)
+    {
+      g_autofree char *sentence = pl_finding_format_sentence (
+        pl_results_get_finding (results, i), results, &si);
+
+      assert_holds (text, sentence, where);
+    }
+}
+
+/* A printed reading agrees with the solver's figure to the four
+ * significant digits the sheet prints: within half a unit of the fourth. */
+static void
+assert_reading (double printed_bar, const TjValue *json_pa, const char *what)
+{
+  double expected, tol;
+
+  ck_assert_msg (json_pa != NULL && json_pa->kind == TJ_NUMBER, "%s: no figure in the JSON",
+                 what);
+  /* 1 bar = 1e5 Pa exactly (NIST SP 811, B.8). */
+  expected = json_pa->number / 1e5;
+  tol = fabs (expected) > 0.0 ? 0.5 * pow (10.0, floor (log10 (fabs (expected))) - 3.0)
+                              : 1e-9;
+  ck_assert_msg (fabs (printed_bar - expected) <= tol * (1.0 + 1e-9),
+                 "%s: the sheet says %.6g bar, the solver %.6g bar", what, printed_bar,
+                 expected);
+}
+
+/* Every gauge of the JSON has a row in the gauges table of the PDF
+ * (pdftotext -layout keeps a row on a line) with four pressures: full
+ * scale, idle, lowest while firing, after recovery (the cycle's highest),
+ * in bar. */
+static guint
+assert_gauges (const char *layout_text, const TjValue *root)
+{
+  const TjValue *parts = tj_get (root, "parts");
+  g_auto (GStrv) lines = g_strsplit (layout_text, "\n", -1);
+  g_autoptr (GRegex) bar = g_regex_new ("(-?[0-9]+(?:\\.[0-9]+)?) bar", 0, 0, NULL);
+  guint n = 0;
+
+  for (guint i = 0; i < parts->keys->len; i++)
+    {
+      const TjValue *part = g_ptr_array_index (parts->items, i);
+      const char *tag = tj_get (part, "tag")->string;
+      const TjValue *port = tj_path (part, "ports", "p", NULL);
+      g_autofree char *prefix = g_strconcat (tag, " ", NULL);
+      gboolean found = FALSE;
+
+      if (!g_str_equal (tj_get (part, "type")->string, "gauge"))
+        continue;
+      for (guint l = 0; lines[l] != NULL && !found; l++)
+        {
+          g_autoptr (GMatchInfo) m = NULL;
+          double v[4];
+          guint k = 0;
+
+          if (!g_str_has_prefix (g_strchug (lines[l]), prefix)
+              || strstr (lines[l], " bar") == NULL)
+            continue;
+          g_regex_match (bar, lines[l], 0, &m);
+          while (g_match_info_matches (m) && k < 4)
+            {
+              g_autofree char *num = g_match_info_fetch (m, 1);
+
+              v[k++] = g_ascii_strtod (num, NULL);
+              g_match_info_next (m, NULL);
+            }
+          /* The parts list has a row for the gauge too, with one figure. */
+          if (k < 4)
+            continue;
+          assert_reading (v[1], tj_get (port, "idle"), "idle");
+          assert_reading (v[2], tj_get (port, "cycle_min"), "lowest while firing");
+          assert_reading (v[3], tj_get (port, "cycle_max"), "after recovery");
+          found = TRUE;
+        }
+      ck_assert_msg (found, "gauge %s has no row in the PDF", tag);
+      n++;
+    }
+  return n;
+}
+
+START_TEST (test_pdf_text)
+{
+  const LayoutCase *c = &layouts[_i];
+  g_autofree char *path = layout_file (c);
+  g_autofree char *pdf = pl_tmpdir_path ("sheets.pdf");
+  const char *args[] = { "export", path, "-o", pdf, NULL };
+  CliRun r = spawn_cli_argv (args);
+  g_autoptr (TjValue) root = solve_json (path);
+  g_autoptr (PlDocument) doc = pl_layout_read_file (path, NULL);
+  g_autoptr (PlResults) results = pl_solve_scheduler_solve_sync (doc, NULL, NULL);
+  g_autofree char *raw = NULL, *layout = NULL;
+  guint gauges;
+
+  ck_assert_msg (r.status == 0, "export %s: exit %d: %s", path, r.status, r.err);
+  cli_run_clear (&r);
+  raw = pdftotext (pdf, FALSE);
+  layout = pdftotext (pdf, TRUE);
+  assert_title_block (raw, doc, path, "the PDF");
+  assert_findings (raw, results, "the PDF");
+  assert_cautions (raw, "the PDF");
+  gauges = assert_gauges (layout, root);
+  /* The filled demo has two gauges, the plain demo one (its comment). */
+  if (c->sample == NULL)
+    ck_assert_uint_eq (gauges, 2);
+  assert_holds (raw, "Pressures are gauge pressures in bar", "the PDF");
+  assert_holds (raw, "Sheet 1 of", "the PDF");
+}
+END_TEST
+
+/* The text of every SVG sheet's <desc>, after checking it parses. */
+static char *
+svg_texts (const char *first, guint *n_files)
+{
+  GString *all = g_string_new (NULL);
+
+  *n_files = 0;
+  for (guint i = 0;; i++)
+    {
+      g_autofree char *name = pl_work_order_sheet_filename (first, i);
+      xmlDocPtr doc;
+      xmlNodePtr root;
+
+      if (!g_file_test (name, G_FILE_TEST_EXISTS))
+        break;
+      doc = xmlReadFile (name, NULL, XML_PARSE_NONET);
+      ck_assert_msg (doc != NULL, "%s is not well-formed XML", name);
+      root = xmlDocGetRootElement (doc);
+      ck_assert_str_eq ((const char *) root->name, "svg");
+      for (xmlNodePtr n = root->children; n != NULL; n = n->next)
+        if (n->type == XML_ELEMENT_NODE && g_str_equal ((const char *) n->name, "desc"))
+          {
+            xmlChar *text = xmlNodeGetContent (n);
+
+            g_string_append (all, (const char *) text);
+            g_string_append_c (all, '\n');
+            xmlFree (text);
+          }
+      xmlFreeDoc (doc);
+      (*n_files)++;
+    }
+  return g_string_free (all, FALSE);
+}
+
+START_TEST (test_svg_sheets)
+{
+  const LayoutCase *c = &layouts[_i];
+  g_autofree char *path = layout_file (c);
+  g_autofree char *svg = pl_tmpdir_path ("sheets.svg");
+  const char *args[] = { "export", path, "-o", svg, "--orientation", "landscape", NULL };
+  CliRun r = spawn_cli_argv (args);
+  g_autoptr (PlDocument) doc = pl_layout_read_file (path, NULL);
+  g_autoptr (PlResults) results = pl_solve_scheduler_solve_sync (doc, NULL, NULL);
+  g_autofree char *text = NULL;
+  guint n_files = 0;
+
+  ck_assert_msg (r.status == 0, "export %s: exit %d: %s", path, r.status, r.err);
+  cli_run_clear (&r);
+  text = svg_texts (svg, &n_files);
+  ck_assert_uint_ge (n_files, 2);
+  assert_title_block (text, doc, path, "the SVG");
+  assert_findings (text, results, "the SVG");
+  assert_cautions (text, "the SVG");
+  for (guint i = 0; i < pl_document_get_n_parts (doc); i++)
+    {
+      const PlPart *part = pl_document_get_part (doc, i);
+
+      if (pl_part_get_part_type (part)->kind == PL_PART_GAUGE)
+        assert_holds (text, pl_part_get_tag (part), "the SVG");
+    }
+  {
+    g_autofree char *last = g_strdup_printf ("Sheet %u of %u", n_files, n_files);
+
+    assert_holds (text, last, "the SVG");
+  }
+}
+END_TEST
+
+/* --- papers, orientations, resolutions --- */
+
+typedef struct
+{
+  PlPaper paper;
+  PlOrientation orientation;
+  double dpi;
+  int width, height;   /* pixels */
+} PngCase;
+
+/* ISO 216: A4 210 x 297 mm, A3 297 x 420 mm; ANSI/ASME Y14.1: Letter
+ * 8.5 x 11 in; pixels = mm / 25.4 x dpi, to the nearest. */
+static const PngCase pngs[] = {
+  { PL_PAPER_A4, PL_ORIENTATION_PORTRAIT, 150, 1240, 1754 },
+  { PL_PAPER_A4, PL_ORIENTATION_LANDSCAPE, 150, 1754, 1240 },
+  { PL_PAPER_LETTER, PL_ORIENTATION_PORTRAIT, 100, 850, 1100 },
+  { PL_PAPER_LETTER, PL_ORIENTATION_LANDSCAPE, 72, 792, 612 },
+  { PL_PAPER_A3, PL_ORIENTATION_PORTRAIT, 72, 842, 1191 },
+  { PL_PAPER_A3, PL_ORIENTATION_LANDSCAPE, 150, 2480, 1754 },
+};
+
+static PlResults *demo_results (PlDocument **doc);
+
+START_TEST (test_png_size)
+{
+  const PngCase *c = &pngs[_i];
+  PlDocument *doc = NULL;
+  g_autoptr (PlResults) results = demo_results (&doc);
+  g_autofree char *png = pl_tmpdir_path ("sheet.png");
+  g_autoptr (GError) error = NULL;
+  g_autoptr (PlWorkOrder) wo = NULL;
+  PlWorkOrderOptions opts;
+
+  pl_work_order_options_init (&opts);
+  pl_paper_get_size (c->paper, c->orientation, &opts.width_mm, &opts.height_mm);
+  wo = pl_work_order_new (doc, results, &opts);
+  ck_assert_msg (pl_work_order_write (wo, PL_WORK_ORDER_PNG, c->dpi, png, &error), "%s",
+                 error ? error->message : "");
+  for (guint i = 0; i < pl_work_order_get_n_sheets (wo); i++)
+    {
+      g_autofree char *name = pl_work_order_sheet_filename (png, i);
+      cairo_surface_t *s = cairo_image_surface_create_from_png (name);
+
+      ck_assert_int_eq (cairo_surface_status (s), CAIRO_STATUS_SUCCESS);
+      ck_assert_int_eq (cairo_image_surface_get_width (s), c->width);
+      ck_assert_int_eq (cairo_image_surface_get_height (s), c->height);
+      cairo_surface_destroy (s);
+    }
+  g_object_unref (doc);
+}
+END_TEST
+
+static PlResults *
+demo_results (PlDocument **doc)
+{
+  g_autofree char *path = sample_path ("demo-glue-line.pline");
+
+  *doc = pl_layout_read_file (path, NULL);
+  ck_assert_ptr_nonnull (*doc);
+  return pl_solve_scheduler_solve_sync (*doc, NULL, NULL);
+}
+
+/* Every paper and orientation as PDF: one page per sheet at the paper's
+ * size in points (72 per inch). */
+START_TEST (test_pdf_papers)
+{
+  PlPaper paper = _i / PL_N_ORIENTATIONS;
+  PlOrientation orientation = _i % PL_N_ORIENTATIONS;
+  PlDocument *doc = NULL;
+  g_autoptr (PlResults) results = demo_results (&doc);
+  g_autofree char *pdf = pl_tmpdir_path ("paper.pdf");
+  g_autoptr (GError) error = NULL;
+  g_autoptr (PlWorkOrder) wo = NULL;
+  g_autofree char *info = NULL;
+  const char *argv[] = { "pdfinfo", pdf, NULL };
+  g_autofree char *pages = NULL, *size = NULL;
+  PlWorkOrderOptions opts;
+  double w, h;
+
+  pl_work_order_options_init (&opts);
+  pl_paper_get_size (paper, orientation, &w, &h);
+  opts.width_mm = w;
+  opts.height_mm = h;
+  wo = pl_work_order_new (doc, results, &opts);
+  ck_assert_uint_ge (pl_work_order_get_n_sheets (wo), 2);
+  ck_assert (pl_work_order_write (wo, PL_WORK_ORDER_PDF, 0, pdf, &error));
+  ck_assert (g_spawn_sync (NULL, (char **) argv, NULL, G_SPAWN_SEARCH_PATH, NULL, NULL, &info,
+                           NULL, NULL, NULL));
+  pages = g_strdup_printf ("Pages:           %u", pl_work_order_get_n_sheets (wo));
+  ck_assert_msg (strstr (info, pages) != NULL, "%s", info);
+  size = g_strdup_printf ("Page size:       %.0f x %.0f pts", round (w * 72 / 25.4),
+                          round (h * 72 / 25.4));
+  {
+    /* pdfinfo prints three decimals; compare to the point. */
+    g_autoptr (GRegex) re = g_regex_new ("Page size: +([0-9.]+) x ([0-9.]+) pts", 0, 0, NULL);
+    g_autoptr (GMatchInfo) m = NULL;
+    g_autofree char *pw = NULL, *ph = NULL;
+
+    ck_assert (g_regex_match (re, info, 0, &m));
+    pw = g_match_info_fetch (m, 1);
+    ph = g_match_info_fetch (m, 2);
+    ck_assert_double_eq_tol (g_ascii_strtod (pw, NULL), w * 72 / 25.4, 0.01);
+    ck_assert_double_eq_tol (g_ascii_strtod (ph, NULL), h * 72 / 25.4, 0.01);
+  }
+  g_object_unref (doc);
+}
+END_TEST
+
+/* --- long tables and missing figures --- */
+
+/* Sixty extra hoses make the parts list run over a sheet: the rest comes
+ * on the next under the repeated heading and header, every tag once. */
+START_TEST (test_table_continues)
+{
+  PlDocument *doc = NULL;
+  g_autoptr (PlResults) results = NULL;
+  g_autoptr (PlWorkOrder) wo = NULL;
+  g_autoptr (GString) all = g_string_new (NULL);
+  PlWorkOrderOptions opts;
+  guint continued = 0;
+
+  /* The demo's own results are of no use once the hoses are added. */
+  results = demo_results (&doc);
+  g_clear_pointer (&results, pl_results_unref);
+  for (guint i = 0; i < 60; i++)
+    {
+      g_autoptr (PlCommand) add = pl_command_new_add_part ("hose", NULL, 400.0 + 70.0 * i,
+                                                           400.0);
+
+      ck_assert (pl_command_apply (add, doc, NULL));
+    }
+  results = pl_solve_scheduler_solve_sync (doc, NULL, NULL);
+  pl_work_order_options_init (&opts);
+  wo = pl_work_order_new (doc, results, &opts);
+  ck_assert_uint_ge (pl_work_order_get_n_sheets (wo), 4);
+  for (guint s = 1; s < pl_work_order_get_n_sheets (wo); s++)
+    {
+      g_autofree char *text = pl_work_order_get_sheet_text (wo, s);
+
+      if (strstr (text, "Parts list (continued)") != NULL)
+        {
+          continued++;
+          ck_assert_ptr_nonnull (strstr (text, "Tag | Part | Sizes and settings"));
+        }
+      g_string_append (all, text);
+    }
+  ck_assert_uint_ge (continued, 1);
+  for (guint i = 0; i < pl_document_get_n_parts (doc); i++)
+    {
+      g_autofree char *row = g_strdup_printf ("\n%s | ",
+                                              pl_part_get_tag (pl_document_get_part (doc, i)));
+      const char *first = strstr (all->str, row);
+
+      ck_assert_msg (first != NULL, "%s is not in the parts list", row + 1);
+      /* Parts come once in the parts list; gauges and applicators once more
+       * in their own tables. */
+      if (pl_part_get_part_type (pl_document_get_part (doc, i))->kind == PL_PART_HOSE)
+        ck_assert_ptr_null (strstr (first + 1, row));
+    }
+  g_object_unref (doc);
+}
+END_TEST
+
+/* Fast results only (the cycle has not run): the sheet says so where the
+ * readings while firing would be, and prints no number there. */
+START_TEST (test_cycle_missing)
+{
+  g_autofree char *path = sample_path ("demo-glue-line.pline");
+  g_autoptr (PlDocument) doc = pl_layout_read_file (path, NULL);
+  PlCompiled *compiled = pl_compile (doc);
+  g_autoptr (PlResults) fast = pl_results_solve_fast (compiled);
+  g_autoptr (PlWorkOrder) wo = NULL;
+  g_autofree char *text = NULL;
+  PlWorkOrderOptions opts;
+
+  pl_compiled_unref (compiled);
+  pl_work_order_options_init (&opts);
+  wo = pl_work_order_new (doc, fast, &opts);
+  text = pl_work_order_get_sheet_text (wo, 1);
+  /* G1: fitted at T1's branch, 400 bar full scale, idle known (pl-work-order-gauges.c). */
+  ck_assert_msg (strstr (text, "G1 | T1 Branch | 400 bar | 176.8 bar | not solved yet | "
+                               "not solved yet | not solved yet") != NULL, "%s", text);
+  ck_assert_ptr_nonnull (strstr (text, "The firing cycle was not solved"));
+  g_free (text);
+  text = pl_work_order_get_sheet_text (wo, 0);
+  ck_assert_ptr_nonnull (strstr (text, "The firing cycle was not solved, so no figure while "
+                                       "firing is shown."));
+}
+END_TEST
+
+/* --- the command line --- */
+
+typedef struct
+{
+  const char *args[8];   /* after "export"; "IN" is the demo, "OUT:" a temp file */
+} BadCase;
+
+static const BadCase bad_cases[] = {
+  { { "IN", NULL } },                                    /* no -o */
+  { { "-o", "OUT:x.pdf", NULL } },                       /* no layout */
+  { { "IN", "-o", NULL } },                              /* -o without a name */
+  { { "IN", "-o", "OUT:x.txt", NULL } },                 /* unknown extension */
+  { { "IN", "-o", "OUT:x.pdf", "--paper", "b5", NULL } },
+  { { "IN", "-o", "OUT:x.pdf", "--orientation", "sideways", NULL } },
+  { { "IN", "-o", "OUT:x.png", "--dpi", "10", NULL } },
+  { { "IN", "-o", "OUT:x.png", "--dpi", "150dpi", NULL } },
+  { { "IN", "-o", "OUT:x.pdf", "--dpi", "150", NULL } }, /* dpi is for PNG */
+  { { "IN", "-o", "OUT:x.pdf", "--units", "metric", NULL } },
+  { { "IN", "-o", "OUT:x.pdf", "--colour", NULL } },
+  { { "IN", "IN", "-o", "OUT:x.pdf", NULL } },
+  { { "no-such-layout.pline", "-o", "OUT:x.pdf", NULL } },
+  { { "IN", "-o", "/no-such-directory/x.pdf", NULL } },
+};
+
+START_TEST (test_bad_arguments)
+{
+  const BadCase *c = &bad_cases[_i];
+  g_autofree char *demo = sample_path ("demo-glue-line.pline");
+  g_autoptr (GPtrArray) args = g_ptr_array_new_with_free_func (g_free);
+  g_autoptr (GPtrArray) outputs = g_ptr_array_new_with_free_func (g_free);
+  CliRun r;
+
+  g_ptr_array_add (args, g_strdup ("export"));
+  for (guint i = 0; c->args[i] != NULL; i++)
+    {
+      const char *a = c->args[i];
+
+      if (g_str_equal (a, "IN"))
+        g_ptr_array_add (args, g_strdup (demo));
+      else if (g_str_has_prefix (a, "OUT:"))
+        {
+          g_ptr_array_add (args, pl_tmpdir_path (a + 4));
+          g_ptr_array_add (outputs, pl_tmpdir_path (a + 4));
+        }
+      else
+        g_ptr_array_add (args, g_strdup (a));
+    }
+  g_ptr_array_add (args, NULL);
+  r = spawn_cli_argv ((const char *const *) args->pdata);
+  ck_assert_msg (r.status == 2, "case %d: exit %d", _i, r.status);
+  ck_assert_msg (r.err != NULL && strlen (r.err) > 10, "case %d: no message", _i);
+  ck_assert_msg (strstr (r.err, "export") != NULL || strstr (r.err, "pressline-cli") != NULL,
+                 "case %d: the message “%s” names nothing", _i, r.err);
+  for (guint i = 0; i < outputs->len; i++)
+    ck_assert_msg (!g_file_test (g_ptr_array_index (outputs, i), G_FILE_TEST_EXISTS),
+                   "case %d left a file", _i);
+  cli_run_clear (&r);
+}
+END_TEST
+
+/* A refused export (a resolution out of range) leaves the file that was
+ * there as it was. */
+START_TEST (test_failed_write_keeps_old_file)
+{
+  PlDocument *doc = NULL;
+  g_autoptr (PlResults) results = demo_results (&doc);
+  g_autofree char *png = pl_tmpdir_path ("keep.png");
+  g_autoptr (PlWorkOrder) wo = NULL;
+  g_autoptr (GError) error = NULL;
+  g_autofree char *after = NULL;
+  PlWorkOrderOptions opts;
+
+  ck_assert (g_file_set_contents (png, "old", -1, NULL));
+  pl_work_order_options_init (&opts);
+  wo = pl_work_order_new (doc, results, &opts);
+  ck_assert (!pl_work_order_write (wo, PL_WORK_ORDER_PNG, 5000.0, png, &error));
+  ck_assert (g_file_get_contents (png, &after, NULL, NULL));
+  ck_assert_str_eq (after, "old");
+  g_object_unref (doc);
+}
+END_TEST
+
+static Suite *
+work_order_suite (void)
+{
+  Suite *s = suite_create ("work-order");
+  TCase *tf = tcase_create ("files");
+  TCase *tp = tcase_create ("papers");
+  TCase *tc = tcase_create ("command line");
+
+  tcase_add_checked_fixture (tf, pl_tmpdir_setup, pl_tmpdir_teardown);
+  tcase_set_timeout (tf, 120);
+  tcase_add_loop_test (tf, test_pdf_text, 0, G_N_ELEMENTS (layouts));
+  tcase_add_loop_test (tf, test_svg_sheets, 0, G_N_ELEMENTS (layouts));
+  tcase_add_test (tf, test_table_continues);
+  tcase_add_test (tf, test_cycle_missing);
+  suite_add_tcase (s, tf);
+
+  tcase_add_checked_fixture (tp, pl_tmpdir_setup, pl_tmpdir_teardown);
+  tcase_set_timeout (tp, 120);
+  tcase_add_loop_test (tp, test_png_size, 0, G_N_ELEMENTS (pngs));
+  tcase_add_loop_test (tp, test_pdf_papers, 0, PL_N_PAPERS * PL_N_ORIENTATIONS);
+  tcase_add_test (tp, test_failed_write_keeps_old_file);
+  suite_add_tcase (s, tp);
+
+  tcase_add_checked_fixture (tc, pl_tmpdir_setup, pl_tmpdir_teardown);
+  tcase_set_timeout (tc, 120);
+  tcase_add_loop_test (tc, test_bad_arguments, 0, G_N_ELEMENTS (bad_cases));
+  suite_add_tcase (s, tc);
+  return s;
+}
+
+int
+main (void)
+{
+  return pl_check_run (work_order_suite ());
+}

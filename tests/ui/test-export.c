@@ -1,0 +1,232 @@
+/* SPDX-License-Identifier: GPL-3.0-or-later
+ *
+ * test-export.c: the work order from the editor: the export action writes
+ * the sheets without its dialog, the dialog opens with its choices and
+ * cancels cleanly, and printing runs through GtkPrintOperation's export
+ * to a PDF (no printer needed) with one page per sheet.
+ */
+#include "config.h"
+
+#include <cairo.h>
+#include <glib/gstdio.h>
+#include <gtk/gtk.h>
+#include <stdio.h>
+#include <string.h>
+
+#include "pl-application.h"
+#include "pl-check.h"
+#include "pl-export-dialog.h"
+#include "pl-print.h"
+#include "pl-tmpdir.h"
+#include "pl-ui-test.h"
+#include "pl-window.h"
+
+static PlApplication *app;
+
+/* One application for the suite: it can be registered on the bus once. */
+static void
+app_setup (void)
+{
+  app = pl_ui_test_app_new ();
+}
+
+static void
+app_teardown (void)
+{
+  g_clear_object (&app);
+}
+
+static void
+spin (guint ms)
+{
+  gint64 end = g_get_monotonic_time () + (gint64) ms * 1000;
+
+  while (g_get_monotonic_time () < end)
+    {
+      g_main_context_iteration (NULL, FALSE);
+      g_usleep (1000);
+    }
+}
+
+static PlWindow *
+open_demo (void)
+{
+  PlWindow *window = pl_window_new (app);
+  g_autofree char *path = g_build_filename (g_getenv ("PRESSLINE_SOURCE_ROOT"), "samples",
+                                            "demo-glue-line.pline", NULL);
+  g_autoptr (GFile) file = g_file_new_for_path (path);
+  g_autoptr (GError) error = NULL;
+
+  gtk_window_present (GTK_WINDOW (window));
+  for (int i = 0; i < 500 && !gtk_widget_get_mapped (GTK_WIDGET (window)); i++)
+    g_main_context_iteration (NULL, TRUE);
+  ck_assert_msg (pl_window_load_file (window, file, &error), "%s", error ? error->message : "");
+  spin (50);
+  return window;
+}
+
+static char *
+pdftotext (const char *pdf)
+{
+  const char *argv[] = { "pdftotext", "-enc", "UTF-8", pdf, "-", NULL };
+  char *out = NULL;
+  int status = 0;
+
+  ck_assert (g_spawn_sync (NULL, (char **) argv, NULL, G_SPAWN_SEARCH_PATH, NULL, NULL, &out,
+                           NULL, &status, NULL));
+  ck_assert (g_spawn_check_wait_status (status, NULL));
+  return out;
+}
+
+static guint
+count (const char *text, const char *needle)
+{
+  guint n = 0;
+
+  for (const char *p = strstr (text, needle); p != NULL; p = strstr (p + 1, needle))
+    n++;
+  return n;
+}
+
+/* The action writes what the dialog would, with its last settings (A4
+ * portrait, 150 dpi at first): a PDF with every sheet, or PNG sheets of
+ * 1240 x 1754 pixels (ISO 216 A4, 210 x 297 mm, at 150 dpi). */
+START_TEST (test_export_action)
+{
+  PlWindow *window = open_demo ();
+  g_autofree char *pdf = g_build_filename (pl_tmpdir, "from-action.pdf", NULL);
+  g_autofree char *png = g_build_filename (pl_tmpdir, "from-action.png", NULL);
+  g_autofree char *text = NULL;
+  cairo_surface_t *image;
+
+  ck_assert (gtk_widget_activate_action (GTK_WIDGET (window), "win.export-work-order-to", "s",
+                                         pdf));
+  ck_assert (g_file_test (pdf, G_FILE_TEST_IS_REGULAR));
+  text = pdftotext (pdf);
+  ck_assert_ptr_nonnull (strstr (text, "DEMO-0001"));
+  ck_assert_ptr_nonnull (strstr (text, "Safety cautions"));
+  ck_assert_uint_ge (count (text, "Sheet "), 2);
+
+  ck_assert (gtk_widget_activate_action (GTK_WIDGET (window), "win.export-work-order-to", "s",
+                                         png));
+  image = cairo_image_surface_create_from_png (png);
+  ck_assert_int_eq (cairo_surface_status (image), CAIRO_STATUS_SUCCESS);
+  ck_assert_int_eq (cairo_image_surface_get_width (image), 1240);
+  ck_assert_int_eq (cairo_image_surface_get_height (image), 1754);
+  cairo_surface_destroy (image);
+  gtk_window_destroy (GTK_WINDOW (window));
+}
+END_TEST
+
+static GtkWindow *
+find_dialog (PlWindow *window)
+{
+  GListModel *tops = gtk_window_get_toplevels ();
+
+  for (guint i = 0; i < g_list_model_get_n_items (tops); i++)
+    {
+      g_autoptr (GtkWindow) w = g_list_model_get_item (tops, i);
+
+      if (GTK_IS_DIALOG (w) && gtk_window_get_transient_for (w) == GTK_WINDOW (window))
+        return w;
+    }
+  return NULL;
+}
+
+/* The menu's action opens the dialog with the format, paper, orientation
+ * and resolution choices; cancelling closes it and writes nothing. */
+START_TEST (test_export_dialog)
+{
+  PlWindow *window = open_demo ();
+  GtkWindow *dialog;
+
+  ck_assert (gtk_widget_activate_action (GTK_WIDGET (window), "win.export-work-order", NULL));
+  for (int i = 0; i < 200 && (dialog = find_dialog (window)) == NULL; i++)
+    spin (5);
+  ck_assert_ptr_nonnull (dialog);
+  for (int i = 0; i < 500 && !gtk_widget_get_mapped (GTK_WIDGET (dialog)); i++)
+    g_main_context_iteration (NULL, TRUE);
+  spin (100);
+  pl_ui_test_save_shot (GTK_WIDGET (dialog), "export-dialog.png");
+  {
+    guint n_drop_downs = 0, n_spins = 0;
+
+    for (GtkWidget *w = gtk_widget_get_first_child (GTK_WIDGET (dialog)); w != NULL;)
+      {
+        GtkWidget *next;
+
+        n_drop_downs += GTK_IS_DROP_DOWN (w);
+        n_spins += GTK_IS_SPIN_BUTTON (w);
+        /* Depth first over the dialog's widgets. */
+        next = gtk_widget_get_first_child (w);
+        while (next == NULL && w != NULL && w != GTK_WIDGET (dialog))
+          {
+            next = gtk_widget_get_next_sibling (w);
+            if (next == NULL)
+              w = gtk_widget_get_parent (w);
+          }
+        w = next;
+      }
+    ck_assert_uint_eq (n_drop_downs, 3);
+    ck_assert_uint_eq (n_spins, 1);
+  }
+  gtk_dialog_response (GTK_DIALOG (dialog), GTK_RESPONSE_CANCEL);
+  spin (50);
+  ck_assert_ptr_null (find_dialog (window));
+  gtk_window_destroy (GTK_WINDOW (window));
+}
+END_TEST
+
+/* Printing with GTK_PRINT_OPERATION_ACTION_EXPORT: the same sheets, one
+ * page each, through begin-print and draw-page. */
+START_TEST (test_print_export)
+{
+  PlWindow *window = open_demo ();
+  g_autofree char *pdf = g_build_filename (pl_tmpdir, "printed.pdf", NULL);
+  g_autoptr (GError) error = NULL;
+  g_autofree char *text = NULL, *last = NULL;
+  GtkPrintOperationResult result;
+  const char *of;
+  guint n;
+
+  result = pl_print_run (window, GTK_PRINT_OPERATION_ACTION_EXPORT, pdf, &error);
+  ck_assert_msg (result == GTK_PRINT_OPERATION_RESULT_APPLY, "print: %d %s", result,
+                 error ? error->message : "");
+  ck_assert (g_file_test (pdf, G_FILE_TEST_IS_REGULAR));
+  text = pdftotext (pdf);
+  /* The paper is the print setup's default, so the count comes from the
+   * sheets themselves; pdftotext ends each page with a form feed. */
+  of = strstr (text, "Sheet 1 of ");
+  ck_assert_ptr_nonnull (of);
+  n = (guint) g_ascii_strtoull (of + strlen ("Sheet 1 of "), NULL, 10);
+  ck_assert_uint_ge (n, 2);
+  ck_assert_uint_eq (count (text, "\f"), n);
+  last = g_strdup_printf ("Sheet %u of %u", n, n);
+  ck_assert_ptr_nonnull (strstr (text, last));
+  ck_assert_ptr_nonnull (strstr (text, "Safety cautions"));
+  gtk_window_destroy (GTK_WINDOW (window));
+}
+END_TEST
+
+static Suite *
+export_suite (void)
+{
+  Suite *s = suite_create ("export");
+  TCase *tc = tcase_create ("editor");
+
+  tcase_add_unchecked_fixture (tc, app_setup, app_teardown);
+  tcase_add_checked_fixture (tc, pl_tmpdir_setup, pl_tmpdir_teardown);
+  tcase_set_timeout (tc, 120);
+  tcase_add_test (tc, test_export_action);
+  tcase_add_test (tc, test_export_dialog);
+  tcase_add_test (tc, test_print_export);
+  suite_add_tcase (s, tc);
+  return s;
+}
+
+int
+main (void)
+{
+  gtk_init ();
+  return pl_check_run (export_suite ());
+}
