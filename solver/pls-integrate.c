@@ -56,6 +56,8 @@
 /* The rate-based test is trusted only while the iteration contracts at
  * least this fast (a rate measured on two iterates is rough). */
 #define PLS_NEWTON_RATE 0.5
+/* Secant retries of a step to locate a bladder port's switch. */
+#define PLS_EVENT_TRIES 8
 
 static double
 pls_delta_p (const pls__model *m, const pls__tlink *l, const double *p)
@@ -136,8 +138,9 @@ pls__link_law (const pls__model *m, size_t k, double q, pls_drop *d)
     }
 }
 
-/* A link that carries flow now: active in the air state, and for an
- * applicator a valve that is not shut. */
+/* A link that carries flow now: active in the air state, for an
+ * applicator a valve that is not shut, for a neck a bladder port that is
+ * open. */
 static int
 pls_link_on (const pls__model *m, size_t k)
 {
@@ -146,6 +149,8 @@ pls_link_on (const pls__model *m, size_t k)
   if (!m->active[k])
     return 0;
   if (l->kind == PLS__LINK_NOZZLE && !(m->open[l->app] > 0.0))
+    return 0;
+  if (m->shut[k])
     return 0;
   return 1;
 }
@@ -658,6 +663,8 @@ pls__integrate (pls__model *m, const pls__schedule *s, double t0, double t1,
   size_t n = m->n_nodes, l = m->n_links, k;
   double t = t0, h = m->h_next;
   pls_status st;
+  int event_tries = 0;
+  double h_pre_event = 0.0;   /* step before an event's secant retries */
 
   m->stop = 0;
   m->pred_valid = 0;
@@ -672,8 +679,8 @@ pls__integrate (pls__model *m, const pls__schedule *s, double t0, double t1,
   while (t < t1)
     {
       double te = fmin (fmin (pls__schedule_next_event (m, s, t), pls_gap_end (m, t)), t1);
-      double hs = h, errn = 0.0;
-      int conv = 0, landing = 0;
+      double hs = h, errn = 0.0, frac = 1.0;
+      int conv = 0, landing = 0, port = 0;
 
       if (hs > m->tol.h_max)
         hs = m->tol.h_max;
@@ -707,6 +714,20 @@ pls__integrate (pls__model *m, const pls__schedule *s, double t0, double t1,
             }
           continue;
         }
+      port = pls__bladder_scan (m, &frac);
+      if (port < 0 && event_tries < PLS_EVENT_TRIES)
+        {
+          /* A bladder port switched inside the step: take it again up to
+           * the crossing (pls-bladder.c). */
+          memcpy (m->p, m->p0, n * sizeof *m->p);
+          memcpy (m->q, m->q0, l * sizeof *m->q);
+          m->rejected++;
+          if (event_tries++ == 0)
+            h_pre_event = hs;
+          h = hs * fmin (0.999, fmax (0.01, frac));
+          continue;
+        }
+      event_tries = 0;
       m->steps++;
       memcpy (m->pred_p0, m->p0, n * sizeof *m->p0);
       memcpy (m->pred_pg, m->pg, n * sizeof *m->pg);
@@ -732,10 +753,11 @@ pls__integrate (pls__model *m, const pls__schedule *s, double t0, double t1,
       t = landing ? te : t + hs;
       if (m->stop)
         break;
-      if (pls_changeover (m, t))
+      if (pls_changeover (m, t) | (port != 0 && pls__bladder_switch (m, 0)))
         {
-          /* A pump stopped or restarted: its flow jumps, so f_n is taken
-           * afresh from consistent algebraic flows. */
+          /* A pump stopped or restarted, or a bladder port switched: a
+           * flow jumps, so f_n is taken afresh from consistent algebraic
+           * flows. */
           m->pred_valid = 0;
           st = pls_consistent_flows (m, err);
           if (st == PLS_OK)
@@ -760,6 +782,13 @@ pls__integrate (pls__model *m, const pls__schedule *s, double t0, double t1,
           h = hs;   /* hold: the factor of this step serves the next one */
         else
           h = hs * grow;
+        /* A step cut short to meet a port's switch passed its error test
+         * at full length: the next one may take that length again. */
+        if (h_pre_event > 0.0)
+          {
+            h = fmax (h, h_pre_event);
+            h_pre_event = 0.0;
+          }
       }
     }
   m->h_next = h;
@@ -770,18 +799,15 @@ out:
   return st;
 }
 
-pls_status
-pls__settle (pls__model *m, const pls__schedule *s, double t, pls_error *err)
+/* Implicit Euler steps of growing length until the state stops moving. */
+static pls_status
+pls_settle_once (pls__model *m, double *pscale, pls_error *err)
 {
-  const pls_allocator *prev = pls_enter (m);
-  size_t n = m->n_nodes, l = m->n_links, i, k;
-  double h = 1e-4, pscale = 1.0;
-  pls_status st = PLS_OK;
+  size_t n = m->n_nodes, l = m->n_links, i;
+  double h = 1e-4;
+  pls_status st;
   int tries, quiet = 0;
 
-  pls__schedule_apply (m, s, t);
-  for (i = 0; i < n; i++)
-    pscale = fmax (pscale, fabs (m->p[i]));
   for (tries = 0; tries < 200 && quiet < 2; tries++)
     {
       double change = 0.0;
@@ -795,33 +821,49 @@ pls__settle (pls__model *m, const pls__schedule *s, double t, pls_error *err)
       memcpy (m->hist_q, m->q0, l * sizeof *m->q0);
       st = pls_stage (m, h, &conv, err);
       if (st != PLS_OK)
-        goto out;
+        return st;
       if (!conv)
         {
           memcpy (m->p, m->p0, n * sizeof *m->p);
           memcpy (m->q, m->q0, l * sizeof *m->q);
           h *= 0.1;
           if (h < 1e-12)
-            {
-              st = pls__error (err, PLS_ERR_NO_CONVERGENCE, -1, -1,
+            return pls__error (err, PLS_ERR_NO_CONVERGENCE, -1, -1,
                                "the starting state of the time-domain model "
                                "could not be found");
-              goto out;
-            }
           continue;
         }
       for (i = 0; i < n; i++)
         {
           change = fmax (change, fabs (m->p[i] - m->p0[i]));
-          pscale = fmax (pscale, fabs (m->p[i]));
+          *pscale = fmax (*pscale, fabs (m->p[i]));
         }
-      quiet = (h >= 1e5 && change <= 1e-10 * pscale) ? quiet + 1 : 0;
+      quiet = (h >= 1e5 && change <= 1e-10 * *pscale) ? quiet + 1 : 0;
       h = fmin (h * 10.0, 1e8);
     }
-  for (k = 0; k < l; k++)
-    m->qint[k] = 0.0;
+  return PLS_OK;
+}
 
-out:
+pls_status
+pls__settle (pls__model *m, const pls__schedule *s, double t, pls_error *err)
+{
+  const pls_allocator *prev = pls_enter (m);
+  double pscale = 1.0;
+  pls_status st = PLS_OK;
+  size_t i, k;
+  int round;
+
+  pls__schedule_apply (m, s, t);
+  for (i = 0; i < m->n_nodes; i++)
+    pscale = fmax (pscale, fabs (m->p[i]));
+  /* A state settled with a bladder port in the wrong state (open below its
+   * precharge, shut below the line's pressure) is settled again with the
+   * port switched. */
+  for (round = 0; round < 4 && st == PLS_OK; round++)
+    if (round == 0 || pls__bladder_switch (m, 1))
+      st = pls_settle_once (m, &pscale, err);
+  for (k = 0; k < m->n_links; k++)
+    m->qint[k] = 0.0;
   m->h_next = 0.0;
   pls__cholmod_leave (prev);
   return st;

@@ -22,10 +22,10 @@
  * time-dependent, so only a measured figure is honest).
  *
  * Accumulator: a gas chamber node with the polytropic fluid volume
- * Vf(p) = V0 [1 - (p0/p)^(1/n)] (absolute pressures; 0 at or below
- * precharge, where the bladder closes the port), joined to its node by
- * the neck, a rigid pipe of the neck's length and bore (inertance and
- * resistance from the line law).
+ * Vf(p) = V0 [1 - (p0/p)^(1/n)] (absolute pressures), joined to its node
+ * by the neck, a rigid pipe of the neck's length and bore (inertance and
+ * resistance from the line law); at precharge the bladder shuts the port,
+ * a switched state (pls-bladder.c).
  */
 
 #include "config.h"
@@ -66,57 +66,12 @@ pls__line_wave (const pls_fluid_params *f, const pls_line_params *l, double *spe
     *compliance_per_length = cp;
 }
 
-/* The bladder closing at precharge puts a corner into Vf(p): its slope
- * jumps from V0 / (n p0) to 0, and the chamber is left with only the neck's
- * tiny compliance behind the neck's inertance, a stiff, lightly damped
- * oscillator that the corner rings like a bell.  The corner is rounded
- * over PLS_BLADDER_BAND of the absolute precharge: the excess pressure
- * x = p - p0 is replaced by the softplus w ln(1 + e^(x/w)), which is x to
- * within w e^(-x/w) above the band (below 1e-9 of x at x > 20 w, i.e. 0.1 %
- * above precharge) and falls to 0 exponentially below it.  A modelling
- * choice, not a published law: it keeps Newton and the error estimate on
- * a continuous slope. */
-#define PLS_BLADDER_BAND 5e-3
-
-static double
-pls_bladder_excess (double x, double w, double *dx)
-{
-  double z = x / w;
-
-  if (z > 40.0)
-    {
-      *dx = 1.0;
-      return x;
-    }
-  if (z < -40.0)
-    {
-      *dx = exp (z);
-      return w * exp (z);
-    }
-  *dx = 1.0 / (1.0 + exp (-z));
-  return w * log1p (exp (z));
-}
-
-/* Smoothed polytropic fluid volume (m^3) and its slope (m^3/Pa). */
-static double
-pls_bladder_volume (const pls_accumulator_params *p, double pressure, double *slope)
-{
-  double p0 = pls_accumulator_effective_precharge (p) + PLS_ATMOSPHERE;
-  double w = PLS_BLADDER_BAND * p0, dx, n = p->polytropic_exponent;
-  double x = pls_bladder_excess (pressure + PLS_ATMOSPHERE - p0, w, &dx), pa = p0 + x;
-  double r = pow (p0 / pa, 1.0 / n);
-
-  /* Vf = V0 [1 - (p0/pa)^(1/n)]; -expm1 keeps it accurate near p0. */
-  *slope = p->gas_volume * r / (n * pa) * dx;
-  return -p->gas_volume * expm1 (log (p0 / pa) / n);
-}
-
 double
 pls__accumulator_slope (const pls_accumulator_params *p, double pressure)
 {
   double slope;
 
-  pls_bladder_volume (p, pressure, &slope);
+  pls__bladder_volume (p, pressure, &slope);
   return slope;
 }
 
@@ -131,7 +86,7 @@ pls__node_volume (const pls__model *m, size_t i, double p, double *slope)
       const pls_accumulator_params *ap = &m->net->elements[nd->acc].u.accumulator;
       double sa;
 
-      v += pls_bladder_volume (ap, p, &sa);
+      v += pls__bladder_volume (ap, p, &sa);
       s += sa;
     }
   if (slope != NULL)
@@ -273,7 +228,8 @@ pls_model_alloc (pls__model *m)
   m->open = pls__calloc (a, m->n_app + 1, sizeof *m->open);
   m->col_node = pls__calloc (a, n, sizeof *m->col_node);
   m->active = pls__calloc (a, l, 1);
-  if (!m->nodes || !m->links || !m->segments || !m->chamber || !m->elem_link
+  m->shut = pls__calloc (a, l + 1, 1);
+  if (!m->shut || !m->nodes || !m->links || !m->segments || !m->chamber || !m->elem_link
       || !m->app_elem || !m->app_link || !m->open || !m->col_node || !m->active)
     return PLS_ERR_NOMEM;
   {
@@ -336,6 +292,7 @@ pls__model_free (pls__model *m)
   pls__free (a, m->open);
   pls__free (a, m->col_node);
   pls__free (a, m->active);
+  pls__free (a, m->shut);
   pls__free (a, m);
 }
 

@@ -126,6 +126,8 @@ struct pls__model
   int air_on;              /* 1: pumps run, dump valves shut                */
   double air_pressure;     /* Pa gauge                                      */
   unsigned char *active;   /* n_links: link carries flow in this air state  */
+  unsigned char *shut;     /* n_links: an accumulator neck whose bladder has
+                              shut the port (pls-bladder.c)                 */
   double *open;            /* n_app: valve opening s in [0, 1] now          */
 
   /* State: pressures of every model node (fixed ones hold theirs) and
@@ -188,9 +190,24 @@ typedef struct
 void pls__line_wave (const pls_fluid_params *f, const pls_line_params *l, double *speed,
                      double *compliance_per_length);
 
-/* Accumulator fluid volume dVf/dp at a gauge pressure (m^3/Pa; 0 at or
- * below precharge: the bladder closes the port). */
+/* Accumulator fluid volume dVf/dp at a gauge pressure (m^3/Pa) while the
+ * port is open: the polytropic law above precharge, its tangent below. */
 double pls__accumulator_slope (const pls_accumulator_params *p, double pressure);
+
+/* ---- the bladder port (pls-bladder.c) ------------------------------------ */
+
+/* Fluid volume of an open chamber at a gauge pressure (m^3) and its slope
+ * (m^3/Pa): exact above precharge, the tangent at precharge below. */
+double pls__bladder_volume (const pls_accumulator_params *p, double pressure, double *slope);
+/* After a step from (m->p0, m->q0) to (m->p, m->q): 0 if no port switches,
+ * 1 if one switches at the step's end (within the event tolerance), -1 if
+ * one switched inside the step: *frac is the secant estimate of the
+ * crossing as a fraction of the step. */
+int pls__bladder_scan (const pls__model *m, double *frac);
+/* Switches the ports whose event the state in m->p, m->q has reached;
+ * at_rest = 1 for a starting state (a shut chamber is set to its
+ * precharge).  Returns 1 if any port changed. */
+int pls__bladder_switch (pls__model *m, int at_rest);
 
 pls_status pls__model_new (const pls_network *net, const pls__model_options *o,
                            pls__model **out, pls_error *err);
