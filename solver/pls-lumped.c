@@ -132,6 +132,8 @@ pls_opening (const pls__schedule *s, size_t j, double t)
     {
     case PLS__SCHED_OPEN:
       return 1.0;
+    case PLS__SCHED_HELD:
+      return s->held;
     case PLS__SCHED_CLOSE_AT:
       if (t <= s->t_close)
         return 1.0;

@@ -74,6 +74,7 @@ typedef enum
   PLS__SCHED_OPEN,        /* every applicator held open                     */
   PLS__SCHED_FIRING,      /* the periodic firing schedule                   */
   PLS__SCHED_CLOSE_AT,    /* open until t_close, then the closing ramp      */
+  PLS__SCHED_HELD,        /* every applicator held at the opening `held`    */
 } pls__sched_kind;
 
 typedef struct
@@ -85,6 +86,7 @@ typedef struct
   double close_ramp;  /* s                                                  */
   double t_close;     /* s (CLOSE_AT)                                       */
   const double *delay;/* n_app delays (s), NULL for none                    */
+  double held;        /* opening in [0, 1] (HELD)                           */
 } pls__schedule;
 
 typedef struct
