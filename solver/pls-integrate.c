@@ -467,7 +467,7 @@ pls_step (pls__model *m, const pls__schedule *s, double t, double h, int *conver
   const double a = 1.0 / (gam * (2.0 - gam)), b = (1.0 - gam) * (1.0 - gam) / (gam * (2.0 - gam));
   const double cerr = (-3.0 * gam * gam + 4.0 * gam - 2.0) / (12.0 * (2.0 - gam));
   size_t n = m->n_nodes, l = m->n_links, i, k;
-  double worst = 0.0, qscale = 0.0;
+  double worst = 0.0, qscale = 0.0, pscale = 0.0;
   pls_status st;
 
   /* Stage 1: trapezoidal rule to t + gamma h. */
@@ -530,13 +530,18 @@ pls_step (pls__model *m, const pls__schedule *s, double t, double h, int *conver
   st = pls_linear_solve (m, err);
   if (st != PLS_OK)
     return st;
+  if (m->tol.p_scale_global)
+    for (i = 0; i < n; i++)
+      if (!m->nodes[i].fixed)
+        pscale = fmax (pscale, fmax (fabs (m->p0[i]), fabs (m->p[i])));
   for (i = 0; i < n; i++)
     {
       double sc;
 
       if (m->nodes[i].fixed)
         continue;
-      sc = m->tol.atol_p + m->tol.rtol * fmax (fabs (m->p0[i]), fabs (m->p[i]));
+      sc = m->tol.atol_p
+           + m->tol.rtol * fmax (pscale, fmax (fabs (m->p0[i]), fabs (m->p[i])));
       if (fabs (m->dp[i]) / sc > worst)
         m->worst = (long) i;
       worst = fmax (worst, fabs (m->dp[i]) / sc);

@@ -278,6 +278,7 @@ pls_solve_shutdown (const pls_network *net, const pls_transient_options *options
     goto nomem;
   m->tol.h_max = o->shutdown_time / 50.0;
   m->tol.h_min = 1e-14 * o->shutdown_time;
+  m->tol.p_scale_global = 1;
   {
     int any = 0;
 

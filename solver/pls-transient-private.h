@@ -96,6 +96,9 @@ typedef struct
   double atol_q;      /* m^3/s                                              */
   double h_max;       /* s, largest step                                    */
   double h_min;       /* s, smallest step before giving up                  */
+  /* 1: pressures are measured against the largest pressure of the model
+   * as well as their own (as flows always are against the largest flow) */
+  int p_scale_global;
 } pls__tolerances;
 
 typedef struct pls__model pls__model;
