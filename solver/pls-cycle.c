@@ -775,48 +775,63 @@ pls_first_shot (pls__model *m, const pls__schedule *firing, pls_cycle_result *r,
   return pls_mean_settle (m, ms, err);
 }
 
-/* After the first cycle from the held state: its shots drew the volume
- * shot in the period T, the held state ms->flow T.  The pump balances the
- * real mean shot flow at another pressure, and with little slope in its
- * curve near stall a small flow error moves that pressure a lot.  The
- * held opening is rescaled by shot / (flow T) (a nozzle's flow is
- * proportional to its opening at a given pressure), the held state
- * settled again, and the cycle's end state moved by the difference of
- * the two held states: a secant step along the slow mode, which leaves
- * the within-cycle swing the cycle has built.  Skipped when the ratio is
- * far from 1 (a starved line, whose mean pressures the held state does
- * not describe). */
+/* After the first cycle from the held state x0 (opening s0, nozzle flow
+ * Q0): its shots drew the volume S in the period T while the pump
+ * delivered P.  Periodic means P = S, and with little slope in the pump's
+ * curve near stall a small flow error moves the balancing pressure a lot.
+ * A second held state x1 at s1 = s0 (1 + (S - P) / (Q0 T)) (nozzle flow
+ * Q1) gives the direction along which the line's stored state moves: a
+ * step a (x1 - x0) changes the pump's delivery by about a (Q1 - Q0) T and
+ * the shots by a S (r - 1), r = (Q1 / s1) / (Q0 / s0) the change of a
+ * nozzle's flow per opening with the pressure.  The cycle's end state is
+ * moved by the a that balances the two: one secant step along the slow
+ * mode, which keeps the within-cycle swing the cycle has built.  Skipped
+ * when the flows are far apart (a starved line, whose mean pressures the
+ * held state does not describe). */
 static pls_status
 pls_mean_correct (pls__model *m, pls_mean_start *ms, double shot, double pumped,
                   double period, pls_error *err)
 {
-  /* The cycle's offset from the held state waits in the predictor's
-   * arrays, which settling does not use (and the jump invalidates). */
+  /* The cycle's offset from x0 waits in the predictor's arrays, which
+   * settling does not use (and the jump invalidates). */
   double ratio = 1.0 + (shot - pumped) / (ms->flow * period);
-  double *dp = m->pred_p0, *dq = m->pred_q0;
+  double *dp = m->pred_p0, *dq = m->pred_q0, *p0 = m->pred_pg, *q0 = m->pred_qg;
+  double s0 = ms->held.held, q0_flow = ms->flow, r, den, step;
   size_t i, k;
   pls_status st;
 
-  if (!(ratio > 0.8 && ratio < 1.25))
+  if (!(ratio > 0.8 && ratio < 1.25) || ratio == 1.0)
     return PLS_OK;
   for (i = 0; i < m->n_nodes; i++)
     dp[i] = m->p[i] - ms->p[i];
   for (k = 0; k < m->n_links; k++)
     dq[k] = m->q[k] - ms->q[k];
+  memcpy (p0, ms->p, m->n_nodes * sizeof *p0);
+  memcpy (q0, ms->q, m->n_links * sizeof *q0);
   memcpy (m->p, ms->p, m->n_nodes * sizeof *m->p);
   memcpy (m->q, ms->q, m->n_links * sizeof *m->q);
-  ms->held.held *= ratio;
+  ms->held.held = s0 * ratio;
   st = pls_mean_settle (m, ms, err);
   if (st != PLS_OK)
     return st;
+  r = (ms->flow / ms->held.held) / (q0_flow / s0);
+  den = (ms->flow - q0_flow) * period - shot * (r - 1.0);
+  step = (shot - pumped) / den;
+  if (!(isfinite (step) && step > 0.0 && step < 4.0))
+    step = 1.0;
   for (i = 0; i < m->n_nodes; i++)
     if (!m->nodes[i].fixed)
-      m->p[i] += dp[i];
+      m->p[i] = p0[i] + dp[i] + step * (m->p[i] - p0[i]);
   for (k = 0; k < m->n_links; k++)
-    m->q[k] += dq[k];
+    m->q[k] = q0[k] + dq[k] + step * (m->q[k] - q0[k]);
   m->pred_valid = 0;
   return PLS_OK;
 }
+
+/* Secant steps along the held states, after the first cycles (a second
+ * one helps a large manifold little: what is left there is its own
+ * recovery, not the pump's balance). */
+#define PLS_MEAN_CORRECTIONS 1
 
 /* The cycle run on a started model; r gets the results. */
 static pls_status
@@ -911,7 +926,7 @@ pls_run_cycles (pls__model *m, const pls_transient_options *o, pls_cycle_result 
           r->periodic = 1;
           break;
         }
-      if (c == 1)
+      if (c <= PLS_MEAN_CORRECTIONS)
         {
           st = pls_mean_correct (m, &ms, r->shot_total, r->pumped, r->period, err);
           if (st != PLS_OK)
