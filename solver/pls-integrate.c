@@ -327,6 +327,7 @@ static pls_status
 pls_stage (pls__model *m, double kappa, int *converged, pls_error *err)
 {
   const pls__tolerances *tol = &m->tol;
+  const double inv_kappa = 1.0 / kappa;
   double prev = INFINITY, prev_fresh = INFINITY;
   pls_status st;
   size_t k, i;
@@ -360,8 +361,8 @@ pls_stage (pls__model *m, double kappa, int *converged, pls_error *err)
             return pls_law_error (m, k, m->q[k], &d, err);
           m->rl[k] = d.h - pls_delta_p (m, l, m->p);
           if (l->inertance > 0.0)
-            m->rl[k] += l->inertance * (m->q[k] - m->hist_q[k]) / kappa;
-          m->dh[k] = 1.0 / (l->inertance / kappa + d.dh_dq);
+            m->rl[k] += l->inertance * (m->q[k] - m->hist_q[k]) * inv_kappa;
+          m->dh[k] = 1.0 / (l->inertance * inv_kappa + d.dh_dq);
           if (m->g[k] == 0.0)
             refactor = 1;
           m->rn[l->a] += m->q[k];
@@ -373,7 +374,7 @@ pls_stage (pls__model *m, double kappa, int *converged, pls_error *err)
           int n = m->col_node[i];
           double slope, v = pls__node_volume (m, (size_t) n, m->p[n], &slope);
 
-          m->rn[n] += (v - m->hist_v[n]) / kappa;
+          m->rn[n] += (v - m->hist_v[n]) * inv_kappa;
           if (refactor)
             m->ev[i] = slope;
         }
@@ -418,7 +419,7 @@ pls_stage (pls__model *m, double kappa, int *converged, pls_error *err)
            * at the new pressures (the link's own equation solved exactly),
            * which keeps the iteration on the law's graph; near convergence
            * the steps are small and the plain update stands. */
-          if (m->links[k].inertance == 0.0 && fabs (m->dq[k]) > fabs (m->q[k]))
+          if (m->algebraic[k] && fabs (m->dq[k]) > fabs (m->q[k]))
             {
               double q = m->q[k] + m->dq[k];
 

@@ -231,7 +231,8 @@ pls_model_alloc (pls__model *m)
   m->col_node = pls__calloc (a, n, sizeof *m->col_node);
   m->active = pls__calloc (a, l, 1);
   m->shut = pls__calloc (a, l + 1, 1);
-  if (!m->shut || !m->nodes || !m->links || !m->segments || !m->chamber || !m->elem_link
+  m->algebraic = pls__calloc (a, l + 1, 1);
+  if (!m->shut || !m->algebraic || !m->nodes || !m->links || !m->segments || !m->chamber || !m->elem_link
       || !m->app_elem || !m->app_link || !m->open || !m->col_node || !m->active)
     return PLS_ERR_NOMEM;
   {
@@ -295,6 +296,7 @@ pls__model_free (pls__model *m)
   pls__free (a, m->col_node);
   pls__free (a, m->active);
   pls__free (a, m->shut);
+  pls__free (a, m->algebraic);
   pls__free (a, m);
 }
 
@@ -628,6 +630,8 @@ pls__model_new (const pls_network *net, const pls__model_options *o, pls__model 
         }
     }
 
+  for (k = 0; k < m->n_links; k++)
+    m->algebraic[k] = !(m->links[k].inertance > 0.0);
   for (i = 0; i < m->n_nodes; i++)
     {
       pls__tnode *nd = &m->nodes[i];

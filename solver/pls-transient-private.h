@@ -131,6 +131,8 @@ struct pls__model
   int air_on;              /* 1: pumps run, dump valves shut                */
   double air_pressure;     /* Pa gauge                                      */
   unsigned char *active;   /* n_links: link carries flow in this air state  */
+  unsigned char *algebraic; /* n_links: no inertance (a compact copy for the
+                               Newton loop, which streams through links) */
   unsigned char *shut;     /* n_links: an accumulator neck whose bladder has
                               shut the port (pls-bladder.c)                 */
   double *open;            /* n_app: valve opening s in [0, 1] now          */
