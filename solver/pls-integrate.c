@@ -328,12 +328,20 @@ pls_stage (pls__model *m, double kappa, int *converged, pls_error *err)
 {
   const pls__tolerances *tol = &m->tol;
   const double inv_kappa = 1.0 / kappa;
-  double prev = INFINITY, prev_fresh = INFINITY;
+  double prev = INFINITY, prev_fresh = INFINITY, pscale = 0.0, qscale = 0.0;
   pls_status st;
   size_t k, i;
   int it, slow = 0;
 
   *converged = 0;
+  /* The updates are measured as the local error is (pls_step): flows
+   * against the largest flow as well as their own, pressures against the
+   * largest pressure too where the tolerances say so. */
+  for (k = 0; k < m->n_links; k++)
+    qscale = fmax (qscale, fabs (m->q[k]));
+  if (tol->p_scale_global)
+    for (i = 0; i < m->nf; i++)
+      pscale = fmax (pscale, fabs (m->p[m->col_node[i]]));
   for (it = 0; it < PLS_NEWTON_MAX; it++)
     {
       double worst = 0.0;
@@ -400,7 +408,7 @@ pls_stage (pls__model *m, double kappa, int *converged, pls_error *err)
       for (i = 0; i < m->nf; i++)
         {
           int n = m->col_node[i];
-          double s = fabs (m->dp[n]) / (tol->atol_p + tol->rtol * fabs (m->p[n]));
+          double s = fabs (m->dp[n]) / (tol->atol_p + tol->rtol * fmax (pscale, fabs (m->p[n])));
 
           m->p[n] += m->dp[n];
           worst = s > worst ? s : worst;
@@ -428,7 +436,7 @@ pls_stage (pls__model *m, double kappa, int *converged, pls_error *err)
                 return st;
               m->dq[k] = q - m->q[k];
             }
-          s = fabs (m->dq[k]) / (tol->atol_q + tol->rtol * fabs (m->q[k]));
+          s = fabs (m->dq[k]) / (tol->atol_q + tol->rtol * fmax (qscale, fabs (m->q[k])));
           m->q[k] += m->dq[k];
           worst = s > worst ? s : worst;
         }
