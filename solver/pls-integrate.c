@@ -86,28 +86,22 @@ pls__link_law (const pls__model *m, size_t k, double q, pls_drop *d)
     }
   if (l->pl_on)
     {
-      /* Laminar power law (pls_power_law_shortcut in pls-lumped.c): the
-       * operations of pls_line_drop's closed form in its order. */
+      /* Laminar power law (pls_power_law_shortcut in pls-lumped.c):
+       * pls_line_drop's closed form with its flow-independent factors
+       * folded into pl_h (the drop per wall stress, segment share
+       * included) and pl_re (the Metzner-Reed number times the wall
+       * stress per squared flow), so no division is left. */
       const pls_fluid_params *f = &m->net->fluid;
-      double aq = fabs (q), n = f->flow_index, kc = f->consistency, gc = l->pl_gc;
+      double aq = fabs (q), n = f->flow_index, gc = l->pl_gc;
       double gamma = l->pl_s * aq, g2 = gamma * gamma + gc * gc;
-      double base = kc * pow (g2, 0.5 * (n - 3.0)), tau = base * g2 * gamma;
-      double vel = aq / l->pl_area, re = 0.0;
+      double base = f->consistency * pow (g2, 0.5 * (n - 3.0)), tau = base * g2 * gamma;
 
-      if (aq > 0.0 && tau > 0.0)
-        re = 8.0 * f->density * vel * vel / tau;
-      if (!(re > l->pl_re_lo))
+      if (!(aq > 0.0 && tau > 0.0 && l->pl_re * aq * aq > l->pl_re_lo * tau))
         {
           double dtau = l->pl_s * base * (n * gamma * gamma + gc * gc);
-          double h = 2.0 * l->pl_len * tau / l->pl_r, dh = 2.0 * l->pl_len * dtau / l->pl_r;
 
-          d->h = (q < 0.0 ? -1.0 : 1.0) * h;
-          d->dh_dq = dh;
-          if (l->kind == PLS__LINK_SEGMENT)
-            {
-              d->h *= l->scale;
-              d->dh_dq *= l->scale;
-            }
+          d->h = (q < 0.0 ? -l->pl_h : l->pl_h) * tau;
+          d->dh_dq = l->pl_h * dtau;
           return;
         }
     }

@@ -333,14 +333,14 @@ pls_line_segments (const pls_network *net, const pls_line_params *l,
  * taken while the Metzner-Reed number 8 rho V^2 / tau_w is at or below the
  * Ryan-Johnson onset.  gamma_c and the onset depend only on the fluid:
  * computing them once leaves one pow per evaluation of the three
- * transcendental pairs the full law takes.  pls__link_law repeats the full
- * law's operations in its order, so the two agree to the last bit (the
- * shutdown's safe time is sensitive to the last bits of the law). */
+ * transcendental pairs the full law takes.  The factors scale 2L/R and
+ * 8 rho / A^2 are folded too, so an evaluation has no division; it
+ * agrees with the full law to a few units in the last place. */
 static void
-pls_power_law_shortcut (const pls_fluid_params *f, const pls_line_params *line,
+pls_power_law_shortcut (const pls_fluid_params *f, const pls_line_params *line, double scale,
                         pls__tlink *l)
 {
-  double n = f->flow_index, d = line->bore, r = 0.5 * d, expo;
+  double n = f->flow_index, d = line->bore, r = 0.5 * d, expo, area;
 
   if (f->law != PLS_VISCOSITY_POWER_LAW || !(n > 0.0) || !(r > 0.0)
       || !(line->length > 0.0) || !(f->consistency > 0.0))
@@ -349,11 +349,12 @@ pls_power_law_shortcut (const pls_fluid_params *f, const pls_line_params *line,
   expo = n == 1.0 ? 0.25 : log1p ((n - 1.0) / (3.0 * n + 1.0)) / (n - 1.0);
   l->pl_gc = PLS_POWER_LAW_PLATEAU_SHEAR * exp (expo);
   l->pl_s = (3.0 * n + 1.0) / (PLS_PI * n * r * r * r);
-  l->pl_area = 0.25 * PLS_PI * d * d;
-  l->pl_len = line->length;
-  l->pl_r = r;
+  area = 0.25 * PLS_PI * d * d;
+  l->pl_h = scale * 2.0 * line->length / r;
+  l->pl_re = 8.0 * f->density / (area * area);
   pls_line_transition_band (f, &l->pl_re_lo, NULL);
-  l->pl_on = isfinite (l->pl_gc) && isfinite (l->pl_s) && isfinite (l->pl_re_lo);
+  l->pl_on = isfinite (l->pl_gc) && isfinite (l->pl_s) && isfinite (l->pl_re_lo)
+             && isfinite (l->pl_h) && isfinite (l->pl_re);
 }
 
 static void
@@ -368,7 +369,7 @@ pls_laminar_shortcut (const pls_fluid_params *f, const pls_line_params *line, do
   l->pl_on = 0;
   if (!pls_fluid_is_newtonian (f))
     {
-      pls_power_law_shortcut (f, line, l);
+      pls_power_law_shortcut (f, line, scale, l);
       return;
     }
   mu0 = pls_fluid_zero_shear_viscosity (f);

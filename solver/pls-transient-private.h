@@ -50,8 +50,8 @@ typedef struct
    * with its flow-independent factors computed once; pl_on = 0: always
    * the full law. */
   int pl_on;
-  double pl_len, pl_r; /* line length and bore radius, m                   */
-  double pl_area;     /* bore area, m^2                                     */
+  double pl_h;        /* scale 2 L / R: h = pl_h tau_w, m/m                 */
+  double pl_re;       /* 8 rho / A^2: Re_MR tau_w = pl_re q^2, kg/m^7       */
   double pl_s;        /* (3n+1) / (pi n R^3): gamma_w = pl_s |q|            */
   double pl_gc;       /* corner wall rate, 1/s                              */
   double pl_re_lo;    /* Ryan-Johnson onset: the full law above it          */
