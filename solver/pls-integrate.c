@@ -162,10 +162,17 @@ pls_law_error (const pls__model *m, size_t k, double q, const pls_drop *d, pls_e
 }
 
 /* Forces at state (p, q): fv = inflow of each node (m^3/s), fq = P_a - P_b
- * - h(q) of each inertial link (Pa). */
+ * - h(q) of each inertial link (Pa).  kappa > 0: (p, q) is the solution of
+ * a stage with that kappa and the links' history in m->hist_q, and fq is
+ * taken from the stage equation itself, I (q - hist_q) / kappa, which
+ * equals P_a - P_b - h(q) to the Newton tolerance, without evaluating the
+ * laws once more (Hosea & Shampine 1996 take f at the stages this way,
+ * which also keeps the error estimate clean of the stiff components'
+ * residuals); the nodes' inflows are summed from the flows either way,
+ * which keeps the volume balance. */
 static pls_status
-pls_forces (const pls__model *m, const double *p, const double *q, double *fv, double *fq,
-            pls_error *err)
+pls_forces (const pls__model *m, const double *p, const double *q, double kappa, double *fv,
+            double *fq, pls_error *err)
 {
   size_t k;
 
@@ -180,7 +187,9 @@ pls_forces (const pls__model *m, const double *p, const double *q, double *fv, d
       fv[l->a] -= q[k];
       if (l->b >= 0)
         fv[l->b] += q[k];
-      if (l->inertance > 0.0)
+      if (l->inertance > 0.0 && kappa > 0.0)
+        fq[k] = l->inertance * (q[k] - m->hist_q[k]) / kappa;
+      else if (l->inertance > 0.0)
         {
           pls_drop d;
 
@@ -191,33 +200,6 @@ pls_forces (const pls__model *m, const double *p, const double *q, double *fv, d
         }
     }
   return PLS_OK;
-}
-
-/* Forces at a stage's solution, from the stage equation itself: the
- * links' I (q - hist_q) / kappa, which equals P_a - P_b - h(q) to the
- * Newton tolerance, without evaluating the laws once more (Hosea &
- * Shampine 1996 take f at the stages this way, which also keeps the error
- * estimate clean of the stiff components' residuals); the nodes' inflows
- * are summed from the flows as always, which keeps the volume balance. */
-static void
-pls_stage_forces (const pls__model *m, double kappa, const double *q, double *fv, double *fq)
-{
-  size_t k;
-
-  memset (fv, 0, m->n_nodes * sizeof *fv);
-  for (k = 0; k < m->n_links; k++)
-    {
-      const pls__tlink *l = &m->links[k];
-
-      fq[k] = 0.0;
-      if (!pls_link_on (m, k))
-        continue;
-      fv[l->a] -= q[k];
-      if (l->b >= 0)
-        fv[l->b] += q[k];
-      if (l->inertance > 0.0)
-        fq[k] = l->inertance * (q[k] - m->hist_q[k]) / kappa;
-    }
 }
 
 static pls_status
@@ -517,7 +499,9 @@ pls_step (pls__model *m, const pls__schedule *s, double t, double h, int *conver
     return st;
   memcpy (m->pg, m->p, n * sizeof *m->p);
   memcpy (m->qg, m->q, l * sizeof *m->q);
-  pls_stage_forces (m, kappa, m->qg, m->fvg, m->fqg);
+  st = pls_forces (m, m->pg, m->qg, kappa, m->fvg, m->fqg, err);
+  if (st != PLS_OK)
+    return st;
 
   /* Stage 2: BDF2 through t, t + gamma h, t + h. */
   for (i = 0; i < n; i++)
@@ -535,7 +519,9 @@ pls_step (pls__model *m, const pls__schedule *s, double t, double h, int *conver
   st = pls_stage (m, kappa, converged, err);
   if (st != PLS_OK || !*converged)
     return st;
-  pls_stage_forces (m, kappa, m->q, m->fv1, m->fq1);
+  st = pls_forces (m, m->p, m->q, kappa, m->fv1, m->fq1, err);
+  if (st != PLS_OK)
+    return st;
 
   /* Error estimate in m-space, filtered through the last stage matrix:
    * solve with residuals -e/kappa (the factor holds C/kappa + B G B^T). */
@@ -704,7 +690,7 @@ pls__integrate (pls__model *m, const pls__schedule *s, double t0, double t1,
   pls__schedule_apply (m, s, t);
   st = pls_consistent_flows (m, err);
   if (st == PLS_OK)
-    st = pls_forces (m, m->p, m->q, m->fv0, m->fq0, err);
+    st = pls_forces (m, m->p, m->q, 0.0, m->fv0, m->fq0, err);
   if (st != PLS_OK)
     goto out;
   while (t < t1)
@@ -792,7 +778,7 @@ pls__integrate (pls__model *m, const pls__schedule *s, double t0, double t1,
           m->pred_valid = 0;
           st = pls_consistent_flows (m, err);
           if (st == PLS_OK)
-            st = pls_forces (m, m->p, m->q, m->fv0, m->fq0, err);
+            st = pls_forces (m, m->p, m->q, 0.0, m->fv0, m->fq0, err);
           if (st != PLS_OK)
             goto out;
         }
@@ -1015,7 +1001,7 @@ pls__ode_rhs (pls__model *m, double t, const pls__schedule *s, const double *y,
       if (st != PLS_OK)
         return st;
     }
-  st = pls_forces (m, m->p, m->q, m->fv1, m->fq1, NULL);
+  st = pls_forces (m, m->p, m->q, 0.0, m->fv1, m->fq1, NULL);
   if (st != PLS_OK)
     return st;
   for (j = 0; j < m->nf; j++)
