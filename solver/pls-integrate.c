@@ -504,9 +504,10 @@ pls_step (pls__model *m, const pls__schedule *s, double t, double h, int *conver
     return st;
 
   /* Stage 2: BDF2 through t, t + gamma h, t + h. */
+  /* V(p_n) is stage 1's history less kappa f_n. */
   for (i = 0; i < n; i++)
     m->hist_v[i] = a * pls__node_volume (m, i, m->pg[i], NULL)
-                   - b * pls__node_volume (m, i, m->p0[i], NULL);
+                   - b * (m->hist_v[i] - kappa * m->fv0[i]);
   for (k = 0; k < l; k++)
     m->hist_q[k] = a * m->qg[k] - b * m->q0[k];
   /* Predictor: the line through the two known points. */
@@ -603,6 +604,15 @@ pls_consistent_flows (pls__model *m, pls_error *err)
         return st;
     }
   return PLS_OK;
+}
+
+static void
+pls_swap (double **a, double **b)
+{
+  double *t = *a;
+
+  *a = *b;
+  *b = t;
 }
 
 static const pls_allocator *
@@ -746,10 +756,6 @@ pls__integrate (pls__model *m, const pls__schedule *s, double t0, double t1,
         }
       event_tries = 0;
       m->steps++;
-      memcpy (m->pred_p0, m->p0, n * sizeof *m->p0);
-      memcpy (m->pred_pg, m->pg, n * sizeof *m->pg);
-      memcpy (m->pred_q0, m->q0, l * sizeof *m->q0);
-      memcpy (m->pred_qg, m->qg, l * sizeof *m->qg);
       m->pred_t[0] = t;
       m->pred_t[1] = t + gam * hs;
       m->pred_t[2] = landing ? te : t + hs;
@@ -767,6 +773,12 @@ pls__integrate (pls__model *m, const pls__schedule *s, double t0, double t1,
           if (st != PLS_OK)
             goto out;
         }
+      /* The step's start and inner stage become the predictor's; the
+       * arrays trade places (the next step overwrites p0, pg first). */
+      pls_swap (&m->pred_p0, &m->p0);
+      pls_swap (&m->pred_pg, &m->pg);
+      pls_swap (&m->pred_q0, &m->q0);
+      pls_swap (&m->pred_qg, &m->qg);
       t = landing ? te : t + hs;
       if (m->stop)
         break;
@@ -785,8 +797,8 @@ pls__integrate (pls__model *m, const pls__schedule *s, double t0, double t1,
       else
         {
           /* f at the new point is the next step's f_n. */
-          memcpy (m->fv0, m->fv1, n * sizeof *m->fv0);
-          memcpy (m->fq0, m->fq1, l * sizeof *m->fq0);
+          pls_swap (&m->fv0, &m->fv1);
+          pls_swap (&m->fq0, &m->fq1);
         }
       {
         double grow = errn > 0.0 ? fmin (4.0, fmax (0.2, 0.9 * pow (errn, -1.0 / 3.0))) : 4.0;

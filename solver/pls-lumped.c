@@ -76,21 +76,13 @@ pls__accumulator_slope (const pls_accumulator_params *p, double pressure)
 }
 
 double
-pls__node_volume (const pls__model *m, size_t i, double p, double *slope)
+pls__chamber_volume (const pls__model *m, const pls__tnode *nd, double p, double *slope)
 {
-  const pls__tnode *nd = &m->nodes[i];
-  double v = nd->compliance * p, s = nd->compliance;
+  const pls_accumulator_params *ap = &m->net->elements[nd->acc].u.accumulator;
+  double sa, v = nd->compliance * p + pls__bladder_volume (ap, p, &sa);
 
-  if (nd->acc >= 0)
-    {
-      const pls_accumulator_params *ap = &m->net->elements[nd->acc].u.accumulator;
-      double sa;
-
-      v += pls__bladder_volume (ap, p, &sa);
-      s += sa;
-    }
   if (slope != NULL)
-    *slope = s;
+    *slope = nd->compliance + sa;
   return v;
 }
 

@@ -221,9 +221,25 @@ pls_status pls__model_new (const pls_network *net, const pls__model_options *o,
 void pls__model_free (pls__model *m);
 /* Changes the air state (pumps and dump valves) of the model. */
 void pls__model_set_air (pls__model *m, int air_on, double air_pressure);
+/* Stored volume of an accumulator's chamber node at pressure p (m^3, from
+ * p = 0) and its slope dV/dp. */
+double pls__chamber_volume (const pls__model *m, const pls__tnode *nd, double p,
+                            double *slope);
+
 /* Stored volume of model node i at pressure p (m^3, from p = 0) and its
- * slope dV/dp. */
-double pls__node_volume (const pls__model *m, size_t i, double p, double *slope);
+ * slope dV/dp: linear but for the chambers (inline: the Newton loop calls
+ * it for every node). */
+static inline double
+pls__node_volume (const pls__model *m, size_t i, double p, double *slope)
+{
+  const pls__tnode *nd = &m->nodes[i];
+
+  if (nd->acc >= 0)
+    return pls__chamber_volume (m, nd, p, slope);
+  if (slope != NULL)
+    *slope = nd->compliance;
+  return nd->compliance * p;
+}
 /* Sets the valve openings for time t from a schedule. */
 void pls__schedule_apply (pls__model *m, const pls__schedule *s, double t);
 /* Earliest schedule event strictly after t (INFINITY if none). */
