@@ -43,6 +43,9 @@
 #include "pls-transient-private.h"
 
 #define PLS_GAMMA (2.0 - 1.41421356237309504880)
+/* The larger of two numbers without a call into libm (fmax is one here);
+ * for the scales of the error norms, which are never NaN. */
+#define PLS_MAX(a, b) ((a) > (b) ? (a) : (b))
 #define PLS_NEWTON_MAX 12
 /* Newton stops when the update is below this fraction of the local error
  * tolerance (Hairer & Wanner sec. IV.8 suggest 0.01 to 0.1; smaller keeps
@@ -314,10 +317,10 @@ pls_stage (pls__model *m, double kappa, int *converged, pls_error *err)
    * against the largest flow as well as their own, pressures against the
    * largest pressure too where the tolerances say so. */
   for (k = 0; k < m->n_links; k++)
-    qscale = fmax (qscale, fabs (m->q[k]));
+    qscale = PLS_MAX (qscale, fabs (m->q[k]));
   if (tol->p_scale_global)
     for (i = 0; i < m->nf; i++)
-      pscale = fmax (pscale, fabs (m->p[m->col_node[i]]));
+      pscale = PLS_MAX (pscale, fabs (m->p[m->col_node[i]]));
   for (it = 0; it < PLS_NEWTON_MAX; it++)
     {
       double worst = 0.0;
@@ -384,7 +387,8 @@ pls_stage (pls__model *m, double kappa, int *converged, pls_error *err)
       for (i = 0; i < m->nf; i++)
         {
           int n = m->col_node[i];
-          double s = fabs (m->dp[n]) / (tol->atol_p + tol->rtol * fmax (pscale, fabs (m->p[n])));
+          double s = fabs (m->dp[n])
+                     / (tol->atol_p + tol->rtol * PLS_MAX (pscale, fabs (m->p[n])));
 
           m->p[n] += m->dp[n];
           worst = s > worst ? s : worst;
@@ -412,7 +416,7 @@ pls_stage (pls__model *m, double kappa, int *converged, pls_error *err)
                 return st;
               m->dq[k] = q - m->q[k];
             }
-          s = fabs (m->dq[k]) / (tol->atol_q + tol->rtol * fmax (qscale, fabs (m->q[k])));
+          s = fabs (m->dq[k]) / (tol->atol_q + tol->rtol * PLS_MAX (qscale, fabs (m->q[k])));
           m->q[k] += m->dq[k];
           worst = s > worst ? s : worst;
         }
@@ -526,55 +530,65 @@ pls_step (pls__model *m, const pls__schedule *s, double t, double h, int *conver
 
   /* Error estimate in m-space, filtered through the last stage matrix:
    * solve with residuals -e/kappa (the factor holds C/kappa + B G B^T). */
-  for (i = 0; i < n; i++)
-    {
-      double e = 2.0 * cerr * h * (m->fv0[i] / gam - m->fvg[i] / (gam * (1.0 - gam))
-                                   + m->fv1[i] / (1.0 - gam));
+  {
+    /* -e / kappa = e0 f_n + eg f_g + e1 f_{n+1} */
+    const double e0 = -2.0 * cerr * h / (gam * kappa);
+    const double eg = 2.0 * cerr * h / (gam * (1.0 - gam) * kappa);
+    const double e1 = -2.0 * cerr * h / ((1.0 - gam) * kappa);
 
-      m->rn[i] = m->nodes[i].fixed ? 0.0 : -e / kappa;
-    }
-  for (k = 0; k < l; k++)
-    {
-      double e = 2.0 * cerr * h * (m->fq0[k] / gam - m->fqg[k] / (gam * (1.0 - gam))
-                                   + m->fq1[k] / (1.0 - gam));
-
-      m->rl[k] = m->links[k].inertance > 0.0 && m->g[k] != 0.0 ? -e / kappa : 0.0;
-    }
+    for (i = 0; i < n; i++)
+      m->rn[i] = m->nodes[i].fixed ? 0.0 : e0 * m->fv0[i] + eg * m->fvg[i] + e1 * m->fv1[i];
+    for (k = 0; k < l; k++)
+      m->rl[k] = !m->algebraic[k] && m->g[k] != 0.0
+                 ? e0 * m->fq0[k] + eg * m->fqg[k] + e1 * m->fq1[k] : 0.0;
+  }
   st = pls_linear_solve (m, err);
   if (st != PLS_OK)
     return st;
+  /* The scales as the largest of their parts; a NaN anywhere makes the
+   * norm NaN (the comparisons are written so), which rejects the step. */
   if (m->tol.p_scale_global)
-    for (i = 0; i < n; i++)
-      if (!m->nodes[i].fixed)
-        pscale = fmax (pscale, fmax (fabs (m->p0[i]), fabs (m->p[i])));
-  for (i = 0; i < n; i++)
-    {
-      double sc;
+    for (i = 0; i < m->nf; i++)
+      {
+        int c = m->col_node[i];
 
-      if (m->nodes[i].fixed)
-        continue;
-      sc = m->tol.atol_p
-           + m->tol.rtol * fmax (pscale, fmax (fabs (m->p0[i]), fabs (m->p[i])));
-      if (fabs (m->dp[i]) / sc > worst)
-        m->worst = (long) i;
-      worst = fmax (worst, fabs (m->dp[i]) / sc);
+        pscale = PLS_MAX (pscale, PLS_MAX (fabs (m->p0[c]), fabs (m->p[c])));
+      }
+  for (i = 0; i < m->nf; i++)
+    {
+      int c = m->col_node[i];
+      double sc = m->tol.atol_p
+                  + m->tol.rtol * PLS_MAX (pscale, PLS_MAX (fabs (m->p0[c]), fabs (m->p[c])));
+      double r = fabs (m->dp[c]) / sc;
+
+      if (!(r <= worst))
+        {
+          worst = r;
+          m->worst = (long) c;
+        }
     }
   /* Flows are measured against the largest flow of the network as well as
    * their own: an almost stagnant branch must not hold the step to
    * resolving flows far below anything that matters elsewhere. */
   for (k = 0; k < l; k++)
-    qscale = fmax (qscale, fmax (fabs (m->q0[k]), fabs (m->q[k])));
-  for (k = 0; k < l; k++)
-    {
-      double sc;
+    qscale = PLS_MAX (qscale, PLS_MAX (fabs (m->q0[k]), fabs (m->q[k])));
+  {
+    const double inv_sc = 1.0 / (m->tol.atol_q + m->tol.rtol * qscale);
 
-      if (!(m->links[k].inertance > 0.0) || m->g[k] == 0.0)
-        continue;
-      sc = m->tol.atol_q + m->tol.rtol * qscale;
-      if (fabs (m->dq[k]) / sc > worst)
-        m->worst = -1 - (long) k;
-      worst = fmax (worst, fabs (m->dq[k]) / sc);
-    }
+    for (k = 0; k < l; k++)
+      {
+        double r;
+
+        if (m->algebraic[k] || m->g[k] == 0.0)
+          continue;
+        r = fabs (m->dq[k]) * inv_sc;
+        if (!(r <= worst))
+          {
+            worst = r;
+            m->worst = -1 - (long) k;
+          }
+      }
+  }
   *errnorm = isfinite (worst) ? worst : INFINITY;
   return PLS_OK;
 }
