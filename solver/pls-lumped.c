@@ -224,8 +224,9 @@ pls_model_alloc (pls__model *m)
   m->active = pls__calloc (a, l, 1);
   m->shut = pls__calloc (a, l + 1, 1);
   m->algebraic = pls__calloc (a, l + 1, 1);
-  if (!m->shut || !m->algebraic || !m->nodes || !m->links || !m->segments || !m->chamber || !m->elem_link
-      || !m->app_elem || !m->app_link || !m->open || !m->col_node || !m->active)
+  if (!m->shut || !m->algebraic || !m->nodes || !m->links || !m->segments || !m->chamber
+      || !m->elem_link || !m->app_elem || !m->app_link || !m->open || !m->col_node
+      || !m->active)
     return PLS_ERR_NOMEM;
   {
     double **nv[] = { &m->p, &m->p0, &m->pg, &m->hist_v, &m->fv0, &m->fvg, &m->fv1,
