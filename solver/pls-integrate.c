@@ -335,7 +335,7 @@ pls_stage (pls__model *m, double kappa, int *converged, pls_error *err)
           pls_drop d;
 
           m->rl[k] = 0.0;
-          m->dh[k] = 0.0;   /* the conductance a fresh Jacobian would use */
+          m->dh[k] = 0.0;   /* the law's slope, 0 for a link that is off */
           if (!pls_link_on (m, k))
             {
               m->q[k] = 0.0;
@@ -343,13 +343,23 @@ pls_stage (pls__model *m, double kappa, int *converged, pls_error *err)
                 refactor = 1;
               continue;
             }
-          pls__link_law (m, k, m->q[k], &d);
-          if (!isfinite (d.h) || !isfinite (d.dh_dq) || !(d.dh_dq > 0.0))
-            return pls_law_error (m, k, m->q[k], &d, err);
+          if (fabs (m->q[k]) < l->lam_qmax)
+            {
+              /* pls__link_law's laminar Newtonian branch, inline: most
+               * links of a large manifold of a Newtonian fluid take it. */
+              d.h = l->lam_r * m->q[k];
+              d.dh_dq = l->lam_r;
+            }
+          else
+            {
+              pls__link_law (m, k, m->q[k], &d);
+              if (!isfinite (d.h) || !isfinite (d.dh_dq) || !(d.dh_dq > 0.0))
+                return pls_law_error (m, k, m->q[k], &d, err);
+            }
           m->rl[k] = d.h - pls_delta_p (m, l, m->p);
           if (l->inertance > 0.0)
             m->rl[k] += l->inertance * (m->q[k] - m->hist_q[k]) * inv_kappa;
-          m->dh[k] = 1.0 / (l->inertance * inv_kappa + d.dh_dq);
+          m->dh[k] = d.dh_dq;
           if (m->g[k] == 0.0)
             refactor = 1;
           m->rn[l->a] += m->q[k];
@@ -370,7 +380,11 @@ pls_stage (pls__model *m, double kappa, int *converged, pls_error *err)
        * kappa and the set of flowing links are unchanged. */
       if (refactor)
         {
-          memcpy (m->g, m->dh, m->n_links * sizeof *m->g);
+          /* The conductances of a fresh Jacobian, 1 / (I / kappa + dh/dq),
+           * computed only when it is factored. */
+          for (k = 0; k < m->n_links; k++)
+            m->g[k] = m->dh[k] > 0.0
+                      ? 1.0 / (m->links[k].inertance * inv_kappa + m->dh[k]) : 0.0;
           st = pls_factor (m, kappa, err);
           if (st != PLS_OK)
             {
