@@ -285,13 +285,19 @@ pls_linear_solve (pls__model *m, pls_error *err)
       for (j = 0; j < m->nf; j++)
         m->dp[m->col_node[j]] = ((double *) m->X->x)[j];
     }
-  for (k = 0; k < m->n_links; k++)
-    {
-      const pls__tlink *l = &m->links[k];
-      double da = m->dp[l->a], db = l->b >= 0 ? m->dp[l->b] : 0.0;
+  /* By the links' matrix columns (the pattern's compact records): a fixed
+   * end or the atmosphere has no column and no update. */
+  {
+    const double *x = m->nf > 0 ? m->X->x : NULL;
 
-      m->dq[k] = m->g[k] * (da - db - m->rl[k]);
-    }
+    for (k = 0; k < m->n_links; k++)
+      {
+        const pls_link *pl = &m->w.links[k];
+        double da = pl->ca >= 0 ? x[pl->ca] : 0.0, db = pl->cb >= 0 ? x[pl->cb] : 0.0;
+
+        m->dq[k] = m->g[k] * (da - db - m->rl[k]);
+      }
+  }
   return PLS_OK;
 }
 
