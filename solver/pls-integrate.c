@@ -169,10 +169,11 @@ pls_law_error (const pls__model *m, size_t k, double q, const pls_drop *d, pls_e
  * a stage with that kappa and the links' history in m->hist_q, and fq is
  * taken from the stage equation itself, I (q - hist_q) / kappa, which
  * equals P_a - P_b - h(q) to the Newton tolerance, without evaluating the
- * laws once more (Hosea & Shampine 1996 take f at the stages this way,
- * which also keeps the error estimate clean of the stiff components'
- * residuals); the nodes' inflows are summed from the flows either way,
- * which keeps the volume balance. */
+ * laws once more (taking f at the stages from the stage equation is the
+ * usual practice for stiff stage methods, as Hosea & Shampine 1996 do,
+ * from memory; it also keeps the error estimate clean of the stiff
+ * components' Newton residuals); the nodes' inflows are summed from the
+ * flows either way, which keeps the volume balance. */
 static pls_status
 pls_forces (const pls__model *m, const double *p, const double *q, double kappa, double *fv,
             double *fq, pls_error *err)
