@@ -25,9 +25,9 @@
  * step: g = p_chamber - p0 while open and flowing out, g = P_node -
  * P_chamber while shut.  A step that crosses g = 0 by more than the
  * event tolerance is taken again, shortened to the secant estimate of the
- * crossing (e.g. Hairer, Norsett & Wanner, Solving ODEs I, 2nd ed., sec.
- * II.6, "discontinuous equations"); one that ends within the tolerance
- * switches at its end.
+ * crossing (event location as in Hairer, Norsett & Wanner, Solving ODEs
+ * I, 2nd ed., sec. II.6 on discontinuous equations; the section from
+ * memory); one that ends within the tolerance switches at its end.
  */
 
 #include "config.h"
