@@ -4,12 +4,15 @@
  * results, and the search for the highest cycle rate that keeps the shots
  * uniform.  Also the pieces the shutdown shares: options, the idle start.
  *
- * Periodic steady state: the schedule is integrated cycle after cycle
- * from the idle state until the largest change of a model node pressure
- * between the starts of two successive cycles, relative to the largest
- * idle pressure, falls below the tolerance; between cycles the sequence
- * of cycle-start states is extrapolated to its limit (pls_rre_add).  The
- * last cycle is reported.
+ * Periodic steady state: after the first shot from idle, the schedule is
+ * integrated cycle after cycle from the steady state with every valve
+ * held at its mean opening (pls_first_shot), corrected once for the mean
+ * shot flow after the first cycle (pls_mean_correct), until the largest
+ * change of a model node pressure between the starts of two successive
+ * cycles, relative to the largest idle pressure, falls below the
+ * tolerance; between later cycles the sequence of cycle-start states is
+ * extrapolated to its limit (pls_rre_add).  The last cycle is reported;
+ * the cycle count is that of the periodic run.
  */
 
 #include "config.h"
@@ -722,6 +725,126 @@ slide:
     }
 }
 
+/* The start of the periodic run (pls_first_shot, pls_mean_correct). */
+typedef struct
+{
+  pls__schedule held;   /* every valve at one opening                      */
+  double flow;          /* the nozzles' total flow in the held state, m^3/s */
+  double *p, *q;        /* the held state                                  */
+} pls_mean_start;
+
+/* The held steady state at ms->held.held from the model's state: into the
+ * model, ms->p, ms->q and ms->flow. */
+static pls_status
+pls_mean_settle (pls__model *m, pls_mean_start *ms, pls_error *err)
+{
+  pls_status st = pls__settle (m, &ms->held, 0.0, err);
+  size_t j;
+
+  if (st != PLS_OK)
+    return st;
+  ms->flow = 0.0;
+  for (j = 0; j < m->n_app; j++)
+    ms->flow += m->q[m->app_link[j]];
+  memcpy (ms->p, m->p, m->n_nodes * sizeof *m->p);
+  memcpy (ms->q, m->q, m->n_links * sizeof *m->q);
+  return PLS_OK;
+}
+
+/* The first shot from idle, which the rate search compares every shot
+ * with: integrated from idle to the end of the shot, its volumes are the
+ * nozzles' flow integrals.  Then the start of the periodic run: the
+ * steady state with every valve held at its mean opening over the cycle
+ * (on_time less half of each ramp, over the period), which draws about
+ * the mean shot flow at about the mean pressures of the periodic state.
+ * From idle the pump has to pull the line down to them through the slow
+ * mode of the accumulator and the supply line (a pump near stall gives
+ * little more flow for a lower pressure, so that mode loses only a few
+ * per cent a cycle); from here what is left is the swing within the
+ * cycle and the error of the mean shot flow (pls_mean_correct). */
+static pls_status
+pls_first_shot (pls__model *m, const pls__schedule *firing, pls_cycle_result *r,
+                double shot_end, const pls_transient_options *o, pls_mean_start *ms,
+                pls_error *err)
+{
+  const pls_network *net = m->net;
+  pls_status st;
+  size_t k;
+
+  for (k = 0; k < m->n_links; k++)
+    m->qint[k] = 0.0;
+  st = pls__integrate (m, firing, 0.0, fmin (shot_end, firing->period), NULL, NULL, err);
+  if (st != PLS_OK)
+    return st;
+  for (k = 0; k < r->n_elements; k++)
+    if (net->elements[k].kind == PLS_ELEMENT_NOZZLE && m->elem_link[k] >= 0)
+      r->first_shot[k] = net->fluid.density * m->qint[m->elem_link[k]];
+  memset (&ms->held, 0, sizeof ms->held);
+  ms->held.kind = PLS__SCHED_HELD;
+  ms->held.held = (o->on_time - 0.5 * o->open_ramp + 0.5 * o->close_ramp) / firing->period;
+  /* Pumps start a fresh stroke, with no changeover gap pending. */
+  pls__model_set_air (m, 1, o->air_pressure);
+  return pls_mean_settle (m, ms, err);
+}
+
+/* After the first cycle from the held state x0 (opening s0, nozzle flow
+ * Q0): its shots drew the volume S in the period T while the pump
+ * delivered P.  Periodic means P = S, and with little slope in the pump's
+ * curve near stall a small flow error moves the balancing pressure a lot.
+ * A second held state x1 at s1 = s0 (1 + (S - P) / (Q0 T)) (nozzle flow
+ * Q1) gives the direction along which the line's stored state moves: a
+ * step a (x1 - x0) changes the pump's delivery by about a (Q1 - Q0) T and
+ * the shots by a S (r - 1), r = (Q1 / s1) / (Q0 / s0) the change of a
+ * nozzle's flow per opening with the pressure.  The cycle's end state is
+ * moved by the a that balances the two: one secant step along the slow
+ * mode, which keeps the within-cycle swing the cycle has built.  Skipped
+ * when the flows are far apart (a starved line, whose mean pressures the
+ * held state does not describe). */
+static pls_status
+pls_mean_correct (pls__model *m, pls_mean_start *ms, double shot, double pumped,
+                  double period, pls_error *err)
+{
+  /* The cycle's offset from x0 waits in the predictor's arrays, which
+   * settling does not use (and the jump invalidates). */
+  double ratio = 1.0 + (shot - pumped) / (ms->flow * period);
+  double *dp = m->pred_p0, *dq = m->pred_q0, *p0 = m->pred_pg, *q0 = m->pred_qg;
+  double s0 = ms->held.held, q0_flow = ms->flow, r, den, step;
+  size_t i, k;
+  pls_status st;
+
+  if (!(ratio > 0.8 && ratio < 1.25) || ratio == 1.0)
+    return PLS_OK;
+  for (i = 0; i < m->n_nodes; i++)
+    dp[i] = m->p[i] - ms->p[i];
+  for (k = 0; k < m->n_links; k++)
+    dq[k] = m->q[k] - ms->q[k];
+  memcpy (p0, ms->p, m->n_nodes * sizeof *p0);
+  memcpy (q0, ms->q, m->n_links * sizeof *q0);
+  memcpy (m->p, ms->p, m->n_nodes * sizeof *m->p);
+  memcpy (m->q, ms->q, m->n_links * sizeof *m->q);
+  ms->held.held = s0 * ratio;
+  st = pls_mean_settle (m, ms, err);
+  if (st != PLS_OK)
+    return st;
+  r = (ms->flow / ms->held.held) / (q0_flow / s0);
+  den = (ms->flow - q0_flow) * period - shot * (r - 1.0);
+  step = (shot - pumped) / den;
+  if (!(isfinite (step) && step > 0.0 && step < 4.0))
+    step = 1.0;
+  for (i = 0; i < m->n_nodes; i++)
+    if (!m->nodes[i].fixed)
+      m->p[i] = p0[i] + dp[i] + step * (m->p[i] - p0[i]);
+  for (k = 0; k < m->n_links; k++)
+    m->q[k] = q0[k] + dq[k] + step * (m->q[k] - q0[k]);
+  m->pred_valid = 0;
+  return PLS_OK;
+}
+
+/* Secant steps along the held states, after the first cycles (a second
+ * one helps a large manifold little: what is left there is its own
+ * recovery, not the pump's balance). */
+#define PLS_MEAN_CORRECTIONS 1
+
 /* The cycle run on a started model; r gets the results. */
 static pls_status
 pls_run_cycles (pls__model *m, const pls_transient_options *o, pls_cycle_result *r,
@@ -732,6 +855,7 @@ pls_run_cycles (pls__model *m, const pls_transient_options *o, pls_cycle_result 
   pls__schedule s;
   pls_tracker tr;
   double *app_delay = NULL, *pprev = NULL, pref = 1.0, t = 0.0, max_delay = 0.0;
+  pls_mean_start ms;
   pls_rre rre;
   pls_status st = PLS_OK;
   size_t i, j;
@@ -748,7 +872,10 @@ pls_run_cycles (pls__model *m, const pls_transient_options *o, pls_cycle_result 
   rre.x = pls__calloc (a, (PLS_RRE_MAX + 2) * rre.n + 1, sizeof *rre.x);
   tr.pint = pls__calloc (a, r->n_nodes, sizeof (double));
   tr.last_out = pls__calloc (a, r->n_nodes, sizeof (double));
-  if (!app_delay || !pprev || !rre.x || !tr.pint || !tr.last_out)
+  memset (&ms, 0, sizeof ms);
+  ms.p = pls__calloc (a, m->n_nodes, sizeof (double));
+  ms.q = pls__calloc (a, m->n_links + 1, sizeof (double));
+  if (!app_delay || !pprev || !rre.x || !tr.pint || !tr.last_out || !ms.p || !ms.q)
     {
       st = pls__error (err, PLS_ERR_NOMEM, -1, -1, "out of memory in the cycle run");
       goto out;
@@ -777,6 +904,9 @@ pls_run_cycles (pls__model *m, const pls_transient_options *o, pls_cycle_result 
       pref = fmax (pref, fabs (m->p[i]));
     }
   rre.pref = pref;
+  st = pls_first_shot (m, &s, r, tr.shot_end, o, &ms, err);
+  if (st != PLS_OK)
+    goto out;
   memcpy (pprev, m->p, m->n_nodes * sizeof *pprev);
   pls_rre_restart (&rre, m);
   for (c = 1; c <= o->max_cycles; c++)
@@ -798,8 +928,6 @@ pls_run_cycles (pls__model *m, const pls_transient_options *o, pls_cycle_result 
           st = pls__error (err, st, -1, -1, "out of memory in the cycle run");
           goto out;
         }
-      if (c == 1)
-        memcpy (r->first_shot, r->shot, r->n_elements * sizeof *r->shot);
       for (i = 0; i < m->n_nodes; i++)
         if (!m->nodes[i].fixed)
           change = fmax (change, fabs (m->p[i] - pprev[i]) / pref);
@@ -810,7 +938,15 @@ pls_run_cycles (pls__model *m, const pls_transient_options *o, pls_cycle_result 
           r->periodic = 1;
           break;
         }
-      pls_rre_add (&rre, m);
+      if (c <= PLS_MEAN_CORRECTIONS)
+        {
+          st = pls_mean_correct (m, &ms, r->shot_total, r->pumped, r->period, err);
+          if (st != PLS_OK)
+            goto out;
+          pls_rre_restart (&rre, m);
+        }
+      else
+        pls_rre_add (&rre, m);
       memcpy (pprev, m->p, m->n_nodes * sizeof *pprev);
     }
   if (!r->periodic
@@ -826,6 +962,8 @@ out:
   pls__free (a, rre.x);
   pls__free (a, tr.pint);
   pls__free (a, tr.last_out);
+  pls__free (a, ms.p);
+  pls__free (a, ms.q);
   return st;
 }
 

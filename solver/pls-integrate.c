@@ -43,6 +43,9 @@
 #include "pls-transient-private.h"
 
 #define PLS_GAMMA (2.0 - 1.41421356237309504880)
+/* The larger of two numbers without a call into libm (fmax is one here);
+ * for the scales of the error norms, which are never NaN. */
+#define PLS_MAX(a, b) ((a) > (b) ? (a) : (b))
 #define PLS_NEWTON_MAX 12
 /* Newton stops when the update is below this fraction of the local error
  * tolerance (Hairer & Wanner sec. IV.8 suggest 0.01 to 0.1; smaller keeps
@@ -56,6 +59,8 @@
 /* The rate-based test is trusted only while the iteration contracts at
  * least this fast (a rate measured on two iterates is rough). */
 #define PLS_NEWTON_RATE 0.5
+/* Secant retries of a step to locate a bladder port's switch. */
+#define PLS_EVENT_TRIES 8
 
 static double
 pls_delta_p (const pls__model *m, const pls__tlink *l, const double *p)
@@ -84,28 +89,22 @@ pls__link_law (const pls__model *m, size_t k, double q, pls_drop *d)
     }
   if (l->pl_on)
     {
-      /* Laminar power law (pls_power_law_shortcut in pls-lumped.c): the
-       * operations of pls_line_drop's closed form in its order. */
+      /* Laminar power law (pls_power_law_shortcut in pls-lumped.c):
+       * pls_line_drop's closed form with its flow-independent factors
+       * folded into pl_h (the drop per wall stress, segment share
+       * included) and pl_re (the Metzner-Reed number times the wall
+       * stress per squared flow), so no division is left. */
       const pls_fluid_params *f = &m->net->fluid;
-      double aq = fabs (q), n = f->flow_index, kc = f->consistency, gc = l->pl_gc;
+      double aq = fabs (q), n = f->flow_index, gc = l->pl_gc;
       double gamma = l->pl_s * aq, g2 = gamma * gamma + gc * gc;
-      double base = kc * pow (g2, 0.5 * (n - 3.0)), tau = base * g2 * gamma;
-      double vel = aq / l->pl_area, re = 0.0;
+      double base = f->consistency * pow (g2, 0.5 * (n - 3.0)), tau = base * g2 * gamma;
 
-      if (aq > 0.0 && tau > 0.0)
-        re = 8.0 * f->density * vel * vel / tau;
-      if (!(re > l->pl_re_lo))
+      if (!(aq > 0.0 && tau > 0.0 && l->pl_re * aq * aq > l->pl_re_lo * tau))
         {
           double dtau = l->pl_s * base * (n * gamma * gamma + gc * gc);
-          double h = 2.0 * l->pl_len * tau / l->pl_r, dh = 2.0 * l->pl_len * dtau / l->pl_r;
 
-          d->h = (q < 0.0 ? -1.0 : 1.0) * h;
-          d->dh_dq = dh;
-          if (l->kind == PLS__LINK_SEGMENT)
-            {
-              d->h *= l->scale;
-              d->dh_dq *= l->scale;
-            }
+          d->h = (q < 0.0 ? -l->pl_h : l->pl_h) * tau;
+          d->dh_dq = l->pl_h * dtau;
           return;
         }
     }
@@ -136,8 +135,9 @@ pls__link_law (const pls__model *m, size_t k, double q, pls_drop *d)
     }
 }
 
-/* A link that carries flow now: active in the air state, and for an
- * applicator a valve that is not shut. */
+/* A link that carries flow now: active in the air state, for an
+ * applicator a valve that is not shut, for a neck a bladder port that is
+ * open. */
 static int
 pls_link_on (const pls__model *m, size_t k)
 {
@@ -146,6 +146,8 @@ pls_link_on (const pls__model *m, size_t k)
   if (!m->active[k])
     return 0;
   if (l->kind == PLS__LINK_NOZZLE && !(m->open[l->app] > 0.0))
+    return 0;
+  if (m->shut[k])
     return 0;
   return 1;
 }
@@ -163,10 +165,18 @@ pls_law_error (const pls__model *m, size_t k, double q, const pls_drop *d, pls_e
 }
 
 /* Forces at state (p, q): fv = inflow of each node (m^3/s), fq = P_a - P_b
- * - h(q) of each inertial link (Pa). */
+ * - h(q) of each inertial link (Pa).  kappa > 0: (p, q) is the solution of
+ * a stage with that kappa and the links' history in m->hist_q, and fq is
+ * taken from the stage equation itself, I (q - hist_q) / kappa, which
+ * equals P_a - P_b - h(q) to the Newton tolerance, without evaluating the
+ * laws once more (taking f at the stages from the stage equation is the
+ * usual practice for stiff stage methods, as Hosea & Shampine 1996 do,
+ * from memory; it also keeps the error estimate clean of the stiff
+ * components' Newton residuals); the nodes' inflows are summed from the
+ * flows either way, which keeps the volume balance. */
 static pls_status
-pls_forces (const pls__model *m, const double *p, const double *q, double *fv, double *fq,
-            pls_error *err)
+pls_forces (const pls__model *m, const double *p, const double *q, double kappa, double *fv,
+            double *fq, pls_error *err)
 {
   size_t k;
 
@@ -181,7 +191,9 @@ pls_forces (const pls__model *m, const double *p, const double *q, double *fv, d
       fv[l->a] -= q[k];
       if (l->b >= 0)
         fv[l->b] += q[k];
-      if (l->inertance > 0.0)
+      if (l->inertance > 0.0 && kappa > 0.0)
+        fq[k] = l->inertance * (q[k] - m->hist_q[k]) / kappa;
+      else if (l->inertance > 0.0)
         {
           pls_drop d;
 
@@ -274,13 +286,19 @@ pls_linear_solve (pls__model *m, pls_error *err)
       for (j = 0; j < m->nf; j++)
         m->dp[m->col_node[j]] = ((double *) m->X->x)[j];
     }
-  for (k = 0; k < m->n_links; k++)
-    {
-      const pls__tlink *l = &m->links[k];
-      double da = m->dp[l->a], db = l->b >= 0 ? m->dp[l->b] : 0.0;
+  /* By the links' matrix columns (the pattern's compact records): a fixed
+   * end or the atmosphere has no column and no update. */
+  {
+    const double *x = m->nf > 0 ? m->X->x : NULL;
 
-      m->dq[k] = m->g[k] * (da - db - m->rl[k]);
-    }
+    for (k = 0; k < m->n_links; k++)
+      {
+        const pls_link *pl = &m->w.links[k];
+        double da = pl->ca >= 0 ? x[pl->ca] : 0.0, db = pl->cb >= 0 ? x[pl->cb] : 0.0;
+
+        m->dq[k] = m->g[k] * (da - db - m->rl[k]);
+      }
+  }
   return PLS_OK;
 }
 
@@ -295,12 +313,21 @@ static pls_status
 pls_stage (pls__model *m, double kappa, int *converged, pls_error *err)
 {
   const pls__tolerances *tol = &m->tol;
-  double prev = INFINITY, prev_fresh = INFINITY;
+  const double inv_kappa = 1.0 / kappa;
+  double prev = INFINITY, prev_fresh = INFINITY, pscale = 0.0, qscale = 0.0;
   pls_status st;
   size_t k, i;
   int it, slow = 0;
 
   *converged = 0;
+  /* The updates are measured as the local error is (pls_step): flows
+   * against the largest flow as well as their own, pressures against the
+   * largest pressure too where the tolerances say so. */
+  for (k = 0; k < m->n_links; k++)
+    qscale = PLS_MAX (qscale, fabs (m->q[k]));
+  if (tol->p_scale_global)
+    for (i = 0; i < m->nf; i++)
+      pscale = PLS_MAX (pscale, fabs (m->p[m->col_node[i]]));
   for (it = 0; it < PLS_NEWTON_MAX; it++)
     {
       double worst = 0.0;
@@ -315,7 +342,7 @@ pls_stage (pls__model *m, double kappa, int *converged, pls_error *err)
           pls_drop d;
 
           m->rl[k] = 0.0;
-          m->dh[k] = 0.0;   /* the conductance a fresh Jacobian would use */
+          m->dh[k] = 0.0;   /* the law's slope, 0 for a link that is off */
           if (!pls_link_on (m, k))
             {
               m->q[k] = 0.0;
@@ -323,13 +350,23 @@ pls_stage (pls__model *m, double kappa, int *converged, pls_error *err)
                 refactor = 1;
               continue;
             }
-          pls__link_law (m, k, m->q[k], &d);
-          if (!isfinite (d.h) || !isfinite (d.dh_dq) || !(d.dh_dq > 0.0))
-            return pls_law_error (m, k, m->q[k], &d, err);
+          if (fabs (m->q[k]) < l->lam_qmax)
+            {
+              /* pls__link_law's laminar Newtonian branch, inline: most
+               * links of a large manifold of a Newtonian fluid take it. */
+              d.h = l->lam_r * m->q[k];
+              d.dh_dq = l->lam_r;
+            }
+          else
+            {
+              pls__link_law (m, k, m->q[k], &d);
+              if (!isfinite (d.h) || !isfinite (d.dh_dq) || !(d.dh_dq > 0.0))
+                return pls_law_error (m, k, m->q[k], &d, err);
+            }
           m->rl[k] = d.h - pls_delta_p (m, l, m->p);
           if (l->inertance > 0.0)
-            m->rl[k] += l->inertance * (m->q[k] - m->hist_q[k]) / kappa;
-          m->dh[k] = 1.0 / (l->inertance / kappa + d.dh_dq);
+            m->rl[k] += l->inertance * (m->q[k] - m->hist_q[k]) * inv_kappa;
+          m->dh[k] = d.dh_dq;
           if (m->g[k] == 0.0)
             refactor = 1;
           m->rn[l->a] += m->q[k];
@@ -341,7 +378,7 @@ pls_stage (pls__model *m, double kappa, int *converged, pls_error *err)
           int n = m->col_node[i];
           double slope, v = pls__node_volume (m, (size_t) n, m->p[n], &slope);
 
-          m->rn[n] += (v - m->hist_v[n]) / kappa;
+          m->rn[n] += (v - m->hist_v[n]) * inv_kappa;
           if (refactor)
             m->ev[i] = slope;
         }
@@ -350,7 +387,11 @@ pls_stage (pls__model *m, double kappa, int *converged, pls_error *err)
        * kappa and the set of flowing links are unchanged. */
       if (refactor)
         {
-          memcpy (m->g, m->dh, m->n_links * sizeof *m->g);
+          /* The conductances of a fresh Jacobian, 1 / (I / kappa + dh/dq),
+           * computed only when it is factored. */
+          for (k = 0; k < m->n_links; k++)
+            m->g[k] = m->dh[k] > 0.0
+                      ? 1.0 / (m->links[k].inertance * inv_kappa + m->dh[k]) : 0.0;
           st = pls_factor (m, kappa, err);
           if (st != PLS_OK)
             {
@@ -367,7 +408,8 @@ pls_stage (pls__model *m, double kappa, int *converged, pls_error *err)
       for (i = 0; i < m->nf; i++)
         {
           int n = m->col_node[i];
-          double s = fabs (m->dp[n]) / (tol->atol_p + tol->rtol * fabs (m->p[n]));
+          double s = fabs (m->dp[n])
+                     / (tol->atol_p + tol->rtol * PLS_MAX (pscale, fabs (m->p[n])));
 
           m->p[n] += m->dp[n];
           worst = s > worst ? s : worst;
@@ -386,7 +428,7 @@ pls_stage (pls__model *m, double kappa, int *converged, pls_error *err)
            * at the new pressures (the link's own equation solved exactly),
            * which keeps the iteration on the law's graph; near convergence
            * the steps are small and the plain update stands. */
-          if (m->links[k].inertance == 0.0 && fabs (m->dq[k]) > fabs (m->q[k]))
+          if (m->algebraic[k] && fabs (m->dq[k]) > fabs (m->q[k]))
             {
               double q = m->q[k] + m->dq[k];
 
@@ -395,7 +437,7 @@ pls_stage (pls__model *m, double kappa, int *converged, pls_error *err)
                 return st;
               m->dq[k] = q - m->q[k];
             }
-          s = fabs (m->dq[k]) / (tol->atol_q + tol->rtol * fabs (m->q[k]));
+          s = fabs (m->dq[k]) / (tol->atol_q + tol->rtol * PLS_MAX (qscale, fabs (m->q[k])));
           m->q[k] += m->dq[k];
           worst = s > worst ? s : worst;
         }
@@ -462,7 +504,7 @@ pls_step (pls__model *m, const pls__schedule *s, double t, double h, int *conver
   const double a = 1.0 / (gam * (2.0 - gam)), b = (1.0 - gam) * (1.0 - gam) / (gam * (2.0 - gam));
   const double cerr = (-3.0 * gam * gam + 4.0 * gam - 2.0) / (12.0 * (2.0 - gam));
   size_t n = m->n_nodes, l = m->n_links, i, k;
-  double worst = 0.0, qscale = 0.0;
+  double worst = 0.0, qscale = 0.0, pscale = 0.0;
   pls_status st;
 
   /* Stage 1: trapezoidal rule to t + gamma h. */
@@ -482,14 +524,15 @@ pls_step (pls__model *m, const pls__schedule *s, double t, double h, int *conver
     return st;
   memcpy (m->pg, m->p, n * sizeof *m->p);
   memcpy (m->qg, m->q, l * sizeof *m->q);
-  st = pls_forces (m, m->pg, m->qg, m->fvg, m->fqg, err);
+  st = pls_forces (m, m->pg, m->qg, kappa, m->fvg, m->fqg, err);
   if (st != PLS_OK)
     return st;
 
   /* Stage 2: BDF2 through t, t + gamma h, t + h. */
+  /* V(p_n) is stage 1's history less kappa f_n. */
   for (i = 0; i < n; i++)
     m->hist_v[i] = a * pls__node_volume (m, i, m->pg[i], NULL)
-                   - b * pls__node_volume (m, i, m->p0[i], NULL);
+                   - b * (m->hist_v[i] - kappa * m->fv0[i]);
   for (k = 0; k < l; k++)
     m->hist_q[k] = a * m->qg[k] - b * m->q0[k];
   /* Predictor: the line through the two known points. */
@@ -502,56 +545,71 @@ pls_step (pls__model *m, const pls__schedule *s, double t, double h, int *conver
   st = pls_stage (m, kappa, converged, err);
   if (st != PLS_OK || !*converged)
     return st;
-  st = pls_forces (m, m->p, m->q, m->fv1, m->fq1, err);
+  st = pls_forces (m, m->p, m->q, kappa, m->fv1, m->fq1, err);
   if (st != PLS_OK)
     return st;
 
   /* Error estimate in m-space, filtered through the last stage matrix:
    * solve with residuals -e/kappa (the factor holds C/kappa + B G B^T). */
-  for (i = 0; i < n; i++)
-    {
-      double e = 2.0 * cerr * h * (m->fv0[i] / gam - m->fvg[i] / (gam * (1.0 - gam))
-                                   + m->fv1[i] / (1.0 - gam));
+  {
+    /* -e / kappa = e0 f_n + eg f_g + e1 f_{n+1} */
+    const double e0 = -2.0 * cerr * h / (gam * kappa);
+    const double eg = 2.0 * cerr * h / (gam * (1.0 - gam) * kappa);
+    const double e1 = -2.0 * cerr * h / ((1.0 - gam) * kappa);
 
-      m->rn[i] = m->nodes[i].fixed ? 0.0 : -e / kappa;
-    }
-  for (k = 0; k < l; k++)
-    {
-      double e = 2.0 * cerr * h * (m->fq0[k] / gam - m->fqg[k] / (gam * (1.0 - gam))
-                                   + m->fq1[k] / (1.0 - gam));
-
-      m->rl[k] = m->links[k].inertance > 0.0 && m->g[k] != 0.0 ? -e / kappa : 0.0;
-    }
+    for (i = 0; i < n; i++)
+      m->rn[i] = m->nodes[i].fixed ? 0.0 : e0 * m->fv0[i] + eg * m->fvg[i] + e1 * m->fv1[i];
+    for (k = 0; k < l; k++)
+      m->rl[k] = !m->algebraic[k] && m->g[k] != 0.0
+                 ? e0 * m->fq0[k] + eg * m->fqg[k] + e1 * m->fq1[k] : 0.0;
+  }
   st = pls_linear_solve (m, err);
   if (st != PLS_OK)
     return st;
-  for (i = 0; i < n; i++)
-    {
-      double sc;
+  /* The scales as the largest of their parts; a NaN anywhere makes the
+   * norm NaN (the comparisons are written so), which rejects the step. */
+  if (m->tol.p_scale_global)
+    for (i = 0; i < m->nf; i++)
+      {
+        int c = m->col_node[i];
 
-      if (m->nodes[i].fixed)
-        continue;
-      sc = m->tol.atol_p + m->tol.rtol * fmax (fabs (m->p0[i]), fabs (m->p[i]));
-      if (fabs (m->dp[i]) / sc > worst)
-        m->worst = (long) i;
-      worst = fmax (worst, fabs (m->dp[i]) / sc);
+        pscale = PLS_MAX (pscale, PLS_MAX (fabs (m->p0[c]), fabs (m->p[c])));
+      }
+  for (i = 0; i < m->nf; i++)
+    {
+      int c = m->col_node[i];
+      double sc = m->tol.atol_p
+                  + m->tol.rtol * PLS_MAX (pscale, PLS_MAX (fabs (m->p0[c]), fabs (m->p[c])));
+      double r = fabs (m->dp[c]) / sc;
+
+      if (!(r <= worst))
+        {
+          worst = r;
+          m->worst = (long) c;
+        }
     }
   /* Flows are measured against the largest flow of the network as well as
    * their own: an almost stagnant branch must not hold the step to
    * resolving flows far below anything that matters elsewhere. */
   for (k = 0; k < l; k++)
-    qscale = fmax (qscale, fmax (fabs (m->q0[k]), fabs (m->q[k])));
-  for (k = 0; k < l; k++)
-    {
-      double sc;
+    qscale = PLS_MAX (qscale, PLS_MAX (fabs (m->q0[k]), fabs (m->q[k])));
+  {
+    const double inv_sc = 1.0 / (m->tol.atol_q + m->tol.rtol * qscale);
 
-      if (!(m->links[k].inertance > 0.0) || m->g[k] == 0.0)
-        continue;
-      sc = m->tol.atol_q + m->tol.rtol * qscale;
-      if (fabs (m->dq[k]) / sc > worst)
-        m->worst = -1 - (long) k;
-      worst = fmax (worst, fabs (m->dq[k]) / sc);
-    }
+    for (k = 0; k < l; k++)
+      {
+        double r;
+
+        if (m->algebraic[k] || m->g[k] == 0.0)
+          continue;
+        r = fabs (m->dq[k]) * inv_sc;
+        if (!(r <= worst))
+          {
+            worst = r;
+            m->worst = -1 - (long) k;
+          }
+      }
+  }
   *errnorm = isfinite (worst) ? worst : INFINITY;
   return PLS_OK;
 }
@@ -581,6 +639,15 @@ pls_consistent_flows (pls__model *m, pls_error *err)
         return st;
     }
   return PLS_OK;
+}
+
+static void
+pls_swap (double **a, double **b)
+{
+  double *t = *a;
+
+  *a = *b;
+  *b = t;
 }
 
 static const pls_allocator *
@@ -658,6 +725,8 @@ pls__integrate (pls__model *m, const pls__schedule *s, double t0, double t1,
   size_t n = m->n_nodes, l = m->n_links, k;
   double t = t0, h = m->h_next;
   pls_status st;
+  int event_tries = 0;
+  double h_pre_event = 0.0;   /* step before an event's secant retries */
 
   m->stop = 0;
   m->pred_valid = 0;
@@ -666,14 +735,14 @@ pls__integrate (pls__model *m, const pls__schedule *s, double t0, double t1,
   pls__schedule_apply (m, s, t);
   st = pls_consistent_flows (m, err);
   if (st == PLS_OK)
-    st = pls_forces (m, m->p, m->q, m->fv0, m->fq0, err);
+    st = pls_forces (m, m->p, m->q, 0.0, m->fv0, m->fq0, err);
   if (st != PLS_OK)
     goto out;
   while (t < t1)
     {
       double te = fmin (fmin (pls__schedule_next_event (m, s, t), pls_gap_end (m, t)), t1);
-      double hs = h, errn = 0.0;
-      int conv = 0, landing = 0;
+      double hs = h, errn = 0.0, frac = 1.0;
+      int conv = 0, landing = 0, port = 0;
 
       if (hs > m->tol.h_max)
         hs = m->tol.h_max;
@@ -707,11 +776,21 @@ pls__integrate (pls__model *m, const pls__schedule *s, double t0, double t1,
             }
           continue;
         }
+      port = pls__bladder_scan (m, &frac);
+      if (port < 0 && event_tries < PLS_EVENT_TRIES)
+        {
+          /* A bladder port switched inside the step: take it again up to
+           * the crossing (pls-bladder.c). */
+          memcpy (m->p, m->p0, n * sizeof *m->p);
+          memcpy (m->q, m->q0, l * sizeof *m->q);
+          m->rejected++;
+          if (event_tries++ == 0)
+            h_pre_event = hs;
+          h = hs * fmin (0.999, fmax (0.01, frac));
+          continue;
+        }
+      event_tries = 0;
       m->steps++;
-      memcpy (m->pred_p0, m->p0, n * sizeof *m->p0);
-      memcpy (m->pred_pg, m->pg, n * sizeof *m->pg);
-      memcpy (m->pred_q0, m->q0, l * sizeof *m->q0);
-      memcpy (m->pred_qg, m->qg, l * sizeof *m->qg);
       m->pred_t[0] = t;
       m->pred_t[1] = t + gam * hs;
       m->pred_t[2] = landing ? te : t + hs;
@@ -729,25 +808,32 @@ pls__integrate (pls__model *m, const pls__schedule *s, double t0, double t1,
           if (st != PLS_OK)
             goto out;
         }
+      /* The step's start and inner stage become the predictor's; the
+       * arrays trade places (the next step overwrites p0, pg first). */
+      pls_swap (&m->pred_p0, &m->p0);
+      pls_swap (&m->pred_pg, &m->pg);
+      pls_swap (&m->pred_q0, &m->q0);
+      pls_swap (&m->pred_qg, &m->qg);
       t = landing ? te : t + hs;
       if (m->stop)
         break;
-      if (pls_changeover (m, t))
+      if (pls_changeover (m, t) | (port != 0 && pls__bladder_switch (m, 0)))
         {
-          /* A pump stopped or restarted: its flow jumps, so f_n is taken
-           * afresh from consistent algebraic flows. */
+          /* A pump stopped or restarted, or a bladder port switched: a
+           * flow jumps, so f_n is taken afresh from consistent algebraic
+           * flows. */
           m->pred_valid = 0;
           st = pls_consistent_flows (m, err);
           if (st == PLS_OK)
-            st = pls_forces (m, m->p, m->q, m->fv0, m->fq0, err);
+            st = pls_forces (m, m->p, m->q, 0.0, m->fv0, m->fq0, err);
           if (st != PLS_OK)
             goto out;
         }
       else
         {
           /* f at the new point is the next step's f_n. */
-          memcpy (m->fv0, m->fv1, n * sizeof *m->fv0);
-          memcpy (m->fq0, m->fq1, l * sizeof *m->fq0);
+          pls_swap (&m->fv0, &m->fv1);
+          pls_swap (&m->fq0, &m->fq1);
         }
       {
         double grow = errn > 0.0 ? fmin (4.0, fmax (0.2, 0.9 * pow (errn, -1.0 / 3.0))) : 4.0;
@@ -760,6 +846,13 @@ pls__integrate (pls__model *m, const pls__schedule *s, double t0, double t1,
           h = hs;   /* hold: the factor of this step serves the next one */
         else
           h = hs * grow;
+        /* A step cut short to meet a port's switch passed its error test
+         * at full length: the next one may take that length again. */
+        if (h_pre_event > 0.0)
+          {
+            h = fmax (h, h_pre_event);
+            h_pre_event = 0.0;
+          }
       }
     }
   m->h_next = h;
@@ -770,18 +863,15 @@ out:
   return st;
 }
 
-pls_status
-pls__settle (pls__model *m, const pls__schedule *s, double t, pls_error *err)
+/* Implicit Euler steps of growing length until the state stops moving. */
+static pls_status
+pls_settle_once (pls__model *m, double *pscale, pls_error *err)
 {
-  const pls_allocator *prev = pls_enter (m);
-  size_t n = m->n_nodes, l = m->n_links, i, k;
-  double h = 1e-4, pscale = 1.0;
-  pls_status st = PLS_OK;
+  size_t n = m->n_nodes, l = m->n_links, i;
+  double h = 1e-4;
+  pls_status st;
   int tries, quiet = 0;
 
-  pls__schedule_apply (m, s, t);
-  for (i = 0; i < n; i++)
-    pscale = fmax (pscale, fabs (m->p[i]));
   for (tries = 0; tries < 200 && quiet < 2; tries++)
     {
       double change = 0.0;
@@ -795,33 +885,49 @@ pls__settle (pls__model *m, const pls__schedule *s, double t, pls_error *err)
       memcpy (m->hist_q, m->q0, l * sizeof *m->q0);
       st = pls_stage (m, h, &conv, err);
       if (st != PLS_OK)
-        goto out;
+        return st;
       if (!conv)
         {
           memcpy (m->p, m->p0, n * sizeof *m->p);
           memcpy (m->q, m->q0, l * sizeof *m->q);
           h *= 0.1;
           if (h < 1e-12)
-            {
-              st = pls__error (err, PLS_ERR_NO_CONVERGENCE, -1, -1,
+            return pls__error (err, PLS_ERR_NO_CONVERGENCE, -1, -1,
                                "the starting state of the time-domain model "
                                "could not be found");
-              goto out;
-            }
           continue;
         }
       for (i = 0; i < n; i++)
         {
           change = fmax (change, fabs (m->p[i] - m->p0[i]));
-          pscale = fmax (pscale, fabs (m->p[i]));
+          *pscale = fmax (*pscale, fabs (m->p[i]));
         }
-      quiet = (h >= 1e5 && change <= 1e-10 * pscale) ? quiet + 1 : 0;
+      quiet = (h >= 1e5 && change <= 1e-10 * *pscale) ? quiet + 1 : 0;
       h = fmin (h * 10.0, 1e8);
     }
-  for (k = 0; k < l; k++)
-    m->qint[k] = 0.0;
+  return PLS_OK;
+}
 
-out:
+pls_status
+pls__settle (pls__model *m, const pls__schedule *s, double t, pls_error *err)
+{
+  const pls_allocator *prev = pls_enter (m);
+  double pscale = 1.0;
+  pls_status st = PLS_OK;
+  size_t i, k;
+  int round;
+
+  pls__schedule_apply (m, s, t);
+  for (i = 0; i < m->n_nodes; i++)
+    pscale = fmax (pscale, fabs (m->p[i]));
+  /* A state settled with a bladder port in the wrong state (open below its
+   * precharge, shut below the line's pressure) is settled again with the
+   * port switched. */
+  for (round = 0; round < 4 && st == PLS_OK; round++)
+    if (round == 0 || pls__bladder_switch (m, 1))
+      st = pls_settle_once (m, &pscale, err);
+  for (k = 0; k < m->n_links; k++)
+    m->qint[k] = 0.0;
   m->h_next = 0.0;
   pls__cholmod_leave (prev);
   return st;
@@ -942,7 +1048,7 @@ pls__ode_rhs (pls__model *m, double t, const pls__schedule *s, const double *y,
       if (st != PLS_OK)
         return st;
     }
-  st = pls_forces (m, m->p, m->q, m->fv1, m->fq1, NULL);
+  st = pls_forces (m, m->p, m->q, 0.0, m->fv1, m->fq1, NULL);
   if (st != PLS_OK)
     return st;
   for (j = 0; j < m->nf; j++)

@@ -22,10 +22,10 @@
  * time-dependent, so only a measured figure is honest).
  *
  * Accumulator: a gas chamber node with the polytropic fluid volume
- * Vf(p) = V0 [1 - (p0/p)^(1/n)] (absolute pressures; 0 at or below
- * precharge, where the bladder closes the port), joined to its node by
- * the neck, a rigid pipe of the neck's length and bore (inertance and
- * resistance from the line law).
+ * Vf(p) = V0 [1 - (p0/p)^(1/n)] (absolute pressures), joined to its node
+ * by the neck, a rigid pipe of the neck's length and bore (inertance and
+ * resistance from the line law); at precharge the bladder shuts the port,
+ * a switched state (pls-bladder.c).
  */
 
 #include "config.h"
@@ -66,76 +66,23 @@ pls__line_wave (const pls_fluid_params *f, const pls_line_params *l, double *spe
     *compliance_per_length = cp;
 }
 
-/* The bladder closing at precharge puts a corner into Vf(p): its slope
- * jumps from V0 / (n p0) to 0, and the chamber is left with only the neck's
- * tiny compliance behind the neck's inertance, a stiff, lightly damped
- * oscillator that the corner rings like a bell.  The corner is rounded
- * over PLS_BLADDER_BAND of the absolute precharge: the excess pressure
- * x = p - p0 is replaced by the softplus w ln(1 + e^(x/w)), which is x to
- * within w e^(-x/w) above the band (below 1e-9 of x at x > 20 w, i.e. 0.1 %
- * above precharge) and falls to 0 exponentially below it.  A modelling
- * choice, not a published law: it keeps Newton and the error estimate on
- * a continuous slope. */
-#define PLS_BLADDER_BAND 5e-3
-
-static double
-pls_bladder_excess (double x, double w, double *dx)
-{
-  double z = x / w;
-
-  if (z > 40.0)
-    {
-      *dx = 1.0;
-      return x;
-    }
-  if (z < -40.0)
-    {
-      *dx = exp (z);
-      return w * exp (z);
-    }
-  *dx = 1.0 / (1.0 + exp (-z));
-  return w * log1p (exp (z));
-}
-
-/* Smoothed polytropic fluid volume (m^3) and its slope (m^3/Pa). */
-static double
-pls_bladder_volume (const pls_accumulator_params *p, double pressure, double *slope)
-{
-  double p0 = pls_accumulator_effective_precharge (p) + PLS_ATMOSPHERE;
-  double w = PLS_BLADDER_BAND * p0, dx, n = p->polytropic_exponent;
-  double x = pls_bladder_excess (pressure + PLS_ATMOSPHERE - p0, w, &dx), pa = p0 + x;
-  double r = pow (p0 / pa, 1.0 / n);
-
-  /* Vf = V0 [1 - (p0/pa)^(1/n)]; -expm1 keeps it accurate near p0. */
-  *slope = p->gas_volume * r / (n * pa) * dx;
-  return -p->gas_volume * expm1 (log (p0 / pa) / n);
-}
-
 double
 pls__accumulator_slope (const pls_accumulator_params *p, double pressure)
 {
   double slope;
 
-  pls_bladder_volume (p, pressure, &slope);
+  pls__bladder_volume (p, pressure, &slope);
   return slope;
 }
 
 double
-pls__node_volume (const pls__model *m, size_t i, double p, double *slope)
+pls__chamber_volume (const pls__model *m, const pls__tnode *nd, double p, double *slope)
 {
-  const pls__tnode *nd = &m->nodes[i];
-  double v = nd->compliance * p, s = nd->compliance;
+  const pls_accumulator_params *ap = &m->net->elements[nd->acc].u.accumulator;
+  double sa, v = nd->compliance * p + pls__bladder_volume (ap, p, &sa);
 
-  if (nd->acc >= 0)
-    {
-      const pls_accumulator_params *ap = &m->net->elements[nd->acc].u.accumulator;
-      double sa;
-
-      v += pls_bladder_volume (ap, p, &sa);
-      s += sa;
-    }
   if (slope != NULL)
-    *slope = s;
+    *slope = nd->compliance + sa;
   return v;
 }
 
@@ -177,6 +124,8 @@ pls_opening (const pls__schedule *s, size_t j, double t)
     {
     case PLS__SCHED_OPEN:
       return 1.0;
+    case PLS__SCHED_HELD:
+      return s->held;
     case PLS__SCHED_CLOSE_AT:
       if (t <= s->t_close)
         return 1.0;
@@ -273,8 +222,11 @@ pls_model_alloc (pls__model *m)
   m->open = pls__calloc (a, m->n_app + 1, sizeof *m->open);
   m->col_node = pls__calloc (a, n, sizeof *m->col_node);
   m->active = pls__calloc (a, l, 1);
-  if (!m->nodes || !m->links || !m->segments || !m->chamber || !m->elem_link
-      || !m->app_elem || !m->app_link || !m->open || !m->col_node || !m->active)
+  m->shut = pls__calloc (a, l + 1, 1);
+  m->algebraic = pls__calloc (a, l + 1, 1);
+  if (!m->shut || !m->algebraic || !m->nodes || !m->links || !m->segments || !m->chamber
+      || !m->elem_link || !m->app_elem || !m->app_link || !m->open || !m->col_node
+      || !m->active)
     return PLS_ERR_NOMEM;
   {
     double **nv[] = { &m->p, &m->p0, &m->pg, &m->hist_v, &m->fv0, &m->fvg, &m->fv1,
@@ -336,6 +288,8 @@ pls__model_free (pls__model *m)
   pls__free (a, m->open);
   pls__free (a, m->col_node);
   pls__free (a, m->active);
+  pls__free (a, m->shut);
+  pls__free (a, m->algebraic);
   pls__free (a, m);
 }
 
@@ -372,14 +326,14 @@ pls_line_segments (const pls_network *net, const pls_line_params *l,
  * taken while the Metzner-Reed number 8 rho V^2 / tau_w is at or below the
  * Ryan-Johnson onset.  gamma_c and the onset depend only on the fluid:
  * computing them once leaves one pow per evaluation of the three
- * transcendental pairs the full law takes.  pls__link_law repeats the full
- * law's operations in its order, so the two agree to the last bit (the
- * shutdown's safe time is sensitive to the last bits of the law). */
+ * transcendental pairs the full law takes.  The factors scale 2L/R and
+ * 8 rho / A^2 are folded too, so an evaluation has no division; it
+ * agrees with the full law to a few units in the last place. */
 static void
-pls_power_law_shortcut (const pls_fluid_params *f, const pls_line_params *line,
+pls_power_law_shortcut (const pls_fluid_params *f, const pls_line_params *line, double scale,
                         pls__tlink *l)
 {
-  double n = f->flow_index, d = line->bore, r = 0.5 * d, expo;
+  double n = f->flow_index, d = line->bore, r = 0.5 * d, expo, area;
 
   if (f->law != PLS_VISCOSITY_POWER_LAW || !(n > 0.0) || !(r > 0.0)
       || !(line->length > 0.0) || !(f->consistency > 0.0))
@@ -388,11 +342,12 @@ pls_power_law_shortcut (const pls_fluid_params *f, const pls_line_params *line,
   expo = n == 1.0 ? 0.25 : log1p ((n - 1.0) / (3.0 * n + 1.0)) / (n - 1.0);
   l->pl_gc = PLS_POWER_LAW_PLATEAU_SHEAR * exp (expo);
   l->pl_s = (3.0 * n + 1.0) / (PLS_PI * n * r * r * r);
-  l->pl_area = 0.25 * PLS_PI * d * d;
-  l->pl_len = line->length;
-  l->pl_r = r;
+  area = 0.25 * PLS_PI * d * d;
+  l->pl_h = scale * 2.0 * line->length / r;
+  l->pl_re = 8.0 * f->density / (area * area);
   pls_line_transition_band (f, &l->pl_re_lo, NULL);
-  l->pl_on = isfinite (l->pl_gc) && isfinite (l->pl_s) && isfinite (l->pl_re_lo);
+  l->pl_on = isfinite (l->pl_gc) && isfinite (l->pl_s) && isfinite (l->pl_re_lo)
+             && isfinite (l->pl_h) && isfinite (l->pl_re);
 }
 
 static void
@@ -407,7 +362,7 @@ pls_laminar_shortcut (const pls_fluid_params *f, const pls_line_params *line, do
   l->pl_on = 0;
   if (!pls_fluid_is_newtonian (f))
     {
-      pls_power_law_shortcut (f, line, l);
+      pls_power_law_shortcut (f, line, scale, l);
       return;
     }
   mu0 = pls_fluid_zero_shear_viscosity (f);
@@ -669,6 +624,8 @@ pls__model_new (const pls_network *net, const pls__model_options *o, pls__model 
         }
     }
 
+  for (k = 0; k < m->n_links; k++)
+    m->algebraic[k] = !(m->links[k].inertance > 0.0);
   for (i = 0; i < m->n_nodes; i++)
     {
       pls__tnode *nd = &m->nodes[i];

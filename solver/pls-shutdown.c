@@ -4,8 +4,15 @@
  *
  * From the idle state (air on, every applicator shut) the pumps stop and
  * the dump valves open at t = 0.  The lumped model is integrated until
- * every node that has a way out is below the safe pressure (or the time
- * limit).  A volume with no way out once the air is off (no path through
+ * every node that has a way out is below the safe pressure and has stayed
+ * there for the confirmation window (or the time limit).  The window is
+ * the first-mode period of the slowest line, 4 L / c (closed at one end):
+ * a pressure wave that could lift a node back above the safe pressure
+ * returns within it, so a line that only rings below the safe pressure
+ * for that long is decaying for good.  The safe time is the last moment a
+ * node fell below the safe pressure (linear interpolation inside the
+ * step, as the series), not the end of the step that found it, so that it
+ * does not move with the step sizes.  A volume with no way out once the air is off (no path through
  * lines, fittings, open valves to a drain or tank; a stopped pump's check
  * valve and a shut applicator are no path) keeps its pressure for ever in
  * this model: it is reported as trapped before any integration, from the
@@ -46,6 +53,8 @@ typedef struct
   pls_shutdown_result *r;
   const unsigned char *trapped_model;  /* per model node */
   double safe;
+  double window;      /* confirmation window, s                           */
+  double below_since; /* last time every node fell below safe; -1: above  */
   /* every accepted step's end, for the series */
   double *t;      /* cap */
   double *p;      /* cap x (n_nodes + n_elements): pressures, then flows */
@@ -85,42 +94,54 @@ pls_decay_push (pls_decay *d, const pls__model *m, double t)
   return PLS_OK;
 }
 
+/* 1 if model node i is an accumulator's chamber whose bladder has shut
+ * the port: it holds its precharge and no fluid (pls-bladder.c). */
+static int
+pls_chamber_shut (const pls__model *m, size_t i)
+{
+  int acc = m->nodes[i].acc;
+
+  return acc >= 0 && m->shut[m->elem_link[acc]];
+}
+
 static pls_status
 pls_decay_step (void *user_data, pls__model *m, double t0, double tg, double t1)
 {
   pls_decay *d = user_data;
   pls_shutdown_result *r = d->r;
   size_t i, n = r->n_nodes;
+  double last = t0;   /* latest fall below safe inside this step */
   int all_safe = 1;
 
   if (pls_decay_push (d, m, t1) != PLS_OK)
     return PLS_ERR_NOMEM;
-  for (i = 0; i < n; i++)
+  for (i = 0; i < m->n_nodes; i++)
     {
-      double pb = m->p[i];
+      double pa = m->p0[i], pb = m->p[i], cross;
 
-      if (r->trapped[i] || m->nodes[i].fixed)
+      if (d->trapped_model[i] || m->nodes[i].fixed || pls_chamber_shut (m, i))
         continue;
       if (pb > d->safe)
         {
-          r->node_safe[i] = -1.0;
+          if (i < n)
+            r->node_safe[i] = -1.0;
           all_safe = 0;
+          continue;
         }
-      else if (r->node_safe[i] < 0.0)
-        {
-          /* Crossed below: linear interpolation inside the step. */
-          double pa = m->p0[i];
-
-          r->node_safe[i] = pa > d->safe ? t0 + (t1 - t0) * (pa - d->safe) / (pa - pb) : t0;
-        }
+      /* Crossed below: linear interpolation inside the step. */
+      cross = pa > d->safe ? t0 + (t1 - t0) * (pa - d->safe) / (pa - pb) : t0;
+      last = fmax (last, cross);
+      if (i < n && r->node_safe[i] < 0.0)
+        r->node_safe[i] = cross;
     }
   (void) tg;
-  for (i = n; i < m->n_nodes && all_safe; i++)
-    if (!d->trapped_model[i] && !m->nodes[i].fixed && m->p[i] > d->safe)
-      all_safe = 0;
-  if (all_safe)
+  if (!all_safe)
+    d->below_since = -1.0;
+  else if (d->below_since < 0.0)
+    d->below_since = last;
+  if (d->below_since >= 0.0 && t1 - d->below_since >= d->window)
     {
-      r->safe_time = t1;
+      r->safe_time = d->below_since;
       m->stop = 1;
     }
   return PLS_OK;
@@ -250,12 +271,22 @@ pls_solve_shutdown (const pls_network *net, const pls_transient_options *options
   d.r = r;
   d.trapped_model = trapped_model;
   d.safe = o->safe_pressure;
+  d.below_since = -1.0;
+  for (k = 0; k < net->n_elements; k++)
+    if (net->elements[k].kind == PLS_ELEMENT_LINE)
+      {
+        double c;
+
+        pls__line_wave (&net->fluid, &net->elements[k].u.line, &c, NULL);
+        d.window = fmax (d.window, 4.0 * net->elements[k].u.line.length / c);
+      }
   memset (&closed, 0, sizeof closed);
   closed.kind = PLS__SCHED_CLOSED;
   if (pls_decay_push (&d, m, 0.0) != PLS_OK)
     goto nomem;
   m->tol.h_max = o->shutdown_time / 50.0;
   m->tol.h_min = 1e-14 * o->shutdown_time;
+  m->tol.p_scale_global = 1;
   {
     int any = 0;
 
@@ -271,6 +302,9 @@ pls_solve_shutdown (const pls_network *net, const pls_transient_options *options
           goto nomem;
         if (st != PLS_OK)
           goto out;
+        /* Below safe at the time limit, its window not yet over. */
+        if (r->safe_time < 0.0 && d.below_since >= 0.0)
+          r->safe_time = d.below_since;
       }
   }
   if (r->safe_time < 0.0
@@ -280,7 +314,8 @@ pls_solve_shutdown (const pls_network *net, const pls_transient_options *options
                            o->shutdown_time) != PLS_OK)
     goto nomem;
 
-  /* Series: the run's steps resampled evenly over its length. */
+  /* Series: the run's steps resampled evenly from the start to the safe
+   * time (to the run's end when it never got there). */
   r->samples = PLS_SHUTDOWN_SAMPLES;
   r->times = pls__calloc (a, r->samples, sizeof (double));
   r->series = pls__calloc (a, r->samples * n, sizeof (double));
@@ -288,7 +323,7 @@ pls_solve_shutdown (const pls_network *net, const pls_transient_options *options
   if (!r->times || !r->series || !r->flow_series)
     goto nomem;
   {
-    double t_end = d.t[d.count - 1];
+    double t_end = r->safe_time >= 0.0 ? r->safe_time : d.t[d.count - 1];
     size_t s, j = 1, w = n + r->n_elements;
 
     for (s = 0; s < r->samples; s++)

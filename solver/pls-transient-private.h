@@ -50,8 +50,8 @@ typedef struct
    * with its flow-independent factors computed once; pl_on = 0: always
    * the full law. */
   int pl_on;
-  double pl_len, pl_r; /* line length and bore radius, m                   */
-  double pl_area;     /* bore area, m^2                                     */
+  double pl_h;        /* scale 2 L / R: h = pl_h tau_w, m/m                 */
+  double pl_re;       /* 8 rho / A^2: Re_MR tau_w = pl_re q^2, kg/m^7       */
   double pl_s;        /* (3n+1) / (pi n R^3): gamma_w = pl_s |q|            */
   double pl_gc;       /* corner wall rate, 1/s                              */
   double pl_re_lo;    /* Ryan-Johnson onset: the full law above it          */
@@ -74,6 +74,7 @@ typedef enum
   PLS__SCHED_OPEN,        /* every applicator held open                     */
   PLS__SCHED_FIRING,      /* the periodic firing schedule                   */
   PLS__SCHED_CLOSE_AT,    /* open until t_close, then the closing ramp      */
+  PLS__SCHED_HELD,        /* every applicator held at the opening `held`    */
 } pls__sched_kind;
 
 typedef struct
@@ -85,6 +86,7 @@ typedef struct
   double close_ramp;  /* s                                                  */
   double t_close;     /* s (CLOSE_AT)                                       */
   const double *delay;/* n_app delays (s), NULL for none                    */
+  double held;        /* opening in [0, 1] (HELD)                           */
 } pls__schedule;
 
 typedef struct
@@ -94,6 +96,9 @@ typedef struct
   double atol_q;      /* m^3/s                                              */
   double h_max;       /* s, largest step                                    */
   double h_min;       /* s, smallest step before giving up                  */
+  /* 1: pressures are measured against the largest pressure of the model
+   * as well as their own (as flows always are against the largest flow) */
+  int p_scale_global;
 } pls__tolerances;
 
 typedef struct pls__model pls__model;
@@ -126,6 +131,10 @@ struct pls__model
   int air_on;              /* 1: pumps run, dump valves shut                */
   double air_pressure;     /* Pa gauge                                      */
   unsigned char *active;   /* n_links: link carries flow in this air state  */
+  unsigned char *algebraic; /* n_links: no inertance (a compact copy for the
+                               Newton loop, which streams through links) */
+  unsigned char *shut;     /* n_links: an accumulator neck whose bladder has
+                              shut the port (pls-bladder.c)                 */
   double *open;            /* n_app: valve opening s in [0, 1] now          */
 
   /* State: pressures of every model node (fixed ones hold theirs) and
@@ -188,18 +197,49 @@ typedef struct
 void pls__line_wave (const pls_fluid_params *f, const pls_line_params *l, double *speed,
                      double *compliance_per_length);
 
-/* Accumulator fluid volume dVf/dp at a gauge pressure (m^3/Pa; 0 at or
- * below precharge: the bladder closes the port). */
+/* Accumulator fluid volume dVf/dp at a gauge pressure (m^3/Pa) while the
+ * port is open: the polytropic law above precharge, its tangent below. */
 double pls__accumulator_slope (const pls_accumulator_params *p, double pressure);
+
+/* ---- the bladder port (pls-bladder.c) ------------------------------------ */
+
+/* Fluid volume of an open chamber at a gauge pressure (m^3) and its slope
+ * (m^3/Pa): exact above precharge, the tangent at precharge below. */
+double pls__bladder_volume (const pls_accumulator_params *p, double pressure, double *slope);
+/* After a step from (m->p0, m->q0) to (m->p, m->q): 0 if no port switches,
+ * 1 if one switches at the step's end (within the event tolerance), -1 if
+ * one switched inside the step: *frac is the secant estimate of the
+ * crossing as a fraction of the step. */
+int pls__bladder_scan (const pls__model *m, double *frac);
+/* Switches the ports whose event the state in m->p, m->q has reached;
+ * at_rest = 1 for a starting state (a shut chamber is set to its
+ * precharge).  Returns 1 if any port changed. */
+int pls__bladder_switch (pls__model *m, int at_rest);
 
 pls_status pls__model_new (const pls_network *net, const pls__model_options *o,
                            pls__model **out, pls_error *err);
 void pls__model_free (pls__model *m);
 /* Changes the air state (pumps and dump valves) of the model. */
 void pls__model_set_air (pls__model *m, int air_on, double air_pressure);
+/* Stored volume of an accumulator's chamber node at pressure p (m^3, from
+ * p = 0) and its slope dV/dp. */
+double pls__chamber_volume (const pls__model *m, const pls__tnode *nd, double p,
+                            double *slope);
+
 /* Stored volume of model node i at pressure p (m^3, from p = 0) and its
- * slope dV/dp. */
-double pls__node_volume (const pls__model *m, size_t i, double p, double *slope);
+ * slope dV/dp: linear but for the chambers (inline: the Newton loop calls
+ * it for every node). */
+static inline double
+pls__node_volume (const pls__model *m, size_t i, double p, double *slope)
+{
+  const pls__tnode *nd = &m->nodes[i];
+
+  if (nd->acc >= 0)
+    return pls__chamber_volume (m, nd, p, slope);
+  if (slope != NULL)
+    *slope = nd->compliance;
+  return nd->compliance * p;
+}
 /* Sets the valve openings for time t from a schedule. */
 void pls__schedule_apply (pls__model *m, const pls__schedule *s, double t);
 /* Earliest schedule event strictly after t (INFINITY if none). */
