@@ -47,7 +47,6 @@ struct _PlWindow
   GSettings *settings;      /* borrowed from the application */
   gulong units_changed_id, recent_changed_id;
   guint toast_id;
-  guint panel_idle_id;
   /* What the results panel was last given (references). */
   PlResults *panel_fast;
   PlResults *panel_full;

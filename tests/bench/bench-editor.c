@@ -27,6 +27,7 @@
 #include <math.h>
 #include <stdio.h>
 #include <stdlib.h>
+#include <string.h>
 
 #include "bench-layout.h"
 #include "pl-application.h"
@@ -44,6 +45,69 @@ typedef struct
   gint64 max_interval;
   guint n_ticks;
 } FrameStats;
+
+/* The longest update (tick callbacks), layout and paint phase of a frame,
+ * so that a long frame says where its time went. */
+typedef enum
+{
+  PHASE_UPDATE,
+  PHASE_LAYOUT,
+  PHASE_PAINT,
+  N_PHASES
+} Phase;
+
+static const char *const phase_names[N_PHASES] = { "update", "layout", "paint" };
+static gint64 phase_start[N_PHASES];
+static gint64 phase_max[N_PHASES];
+
+static void
+phase_begin_cb (GdkFrameClock *clock, gpointer data)
+{
+  phase_start[GPOINTER_TO_INT (data)] = g_get_monotonic_time ();
+}
+
+static void
+phase_end_cb (GdkFrameClock *clock, gpointer data)
+{
+  Phase p = GPOINTER_TO_INT (data);
+  gint64 dt = g_get_monotonic_time () - phase_start[p];
+
+  if (phase_start[p] != 0 && dt > phase_max[p])
+    phase_max[p] = dt;
+}
+
+static void
+watch_phases (GtkWidget *window)
+{
+  GdkFrameClock *clock = gtk_widget_get_frame_clock (window);
+
+  /* update runs between "update" and "layout", layout between "layout"
+   * and "paint", paint between "paint" and "after-paint". */
+  g_signal_connect (clock, "update", G_CALLBACK (phase_begin_cb),
+                    GINT_TO_POINTER (PHASE_UPDATE));
+  g_signal_connect_after (clock, "update", G_CALLBACK (phase_end_cb),
+                          GINT_TO_POINTER (PHASE_UPDATE));
+  g_signal_connect (clock, "layout", G_CALLBACK (phase_begin_cb),
+                    GINT_TO_POINTER (PHASE_LAYOUT));
+  g_signal_connect_after (clock, "layout", G_CALLBACK (phase_end_cb),
+                          GINT_TO_POINTER (PHASE_LAYOUT));
+  g_signal_connect (clock, "paint", G_CALLBACK (phase_begin_cb),
+                    GINT_TO_POINTER (PHASE_PAINT));
+  g_signal_connect_after (clock, "paint", G_CALLBACK (phase_end_cb),
+                          GINT_TO_POINTER (PHASE_PAINT));
+}
+
+static void
+print_phases (const char *what)
+{
+  printf ("    %s, longest phases:", what);
+  for (int p = 0; p < N_PHASES; p++)
+    {
+      printf (" %s %.2f ms", phase_names[p], phase_max[p] / 1000.0);
+      phase_max[p] = 0;
+    }
+  printf ("\n");
+}
 
 static gboolean
 tick_cb (GtkWidget *widget, GdkFrameClock *clock, gpointer data)
@@ -157,6 +221,7 @@ redraw_only (PlWindow *window, double *frame, double *block)
 
   run_for (50);
   fs.max_interval = 0;
+  memset (phase_max, 0, sizeof phase_max);
   for (int i = 1; i <= N_STEPS; i++)
     {
       gtk_widget_queue_draw (canvas);
@@ -165,6 +230,7 @@ redraw_only (PlWindow *window, double *frame, double *block)
   gtk_widget_remove_tick_callback (GTK_WIDGET (window), tick);
   *frame = fs.max_interval / 1000.0;
   *block = worst / 1000.0;
+  print_phases ("redraw only");
 }
 
 /* A part dragged 60 frames; returns the longest frame interval and the
@@ -186,6 +252,7 @@ drag_part (PlWindow *window, const char *part_id, double *frame, double *block)
   tick = gtk_widget_add_tick_callback (GTK_WIDGET (window), tick_cb, &fs, NULL);
   run_for (50);
   fs.max_interval = 0;
+  memset (phase_max, 0, sizeof phase_max);
   pl_canvas_pointer_press (canvas, s.x, s.y, 0);
   for (int i = 1; i <= N_STEPS; i++)
     {
@@ -202,6 +269,7 @@ drag_part (PlWindow *window, const char *part_id, double *frame, double *block)
   gtk_widget_remove_tick_callback (GTK_WIDGET (window), tick);
   *frame = fs.max_interval / 1000.0;
   *block = worst / 1000.0;
+  print_phases ("part drag");
 }
 
 /* A bore changed every frame, as a spin button held down changes it. */
@@ -217,6 +285,7 @@ sweep_bore (PlWindow *window, const char *hose, double *frame, double *block)
 
   run_for (50);
   fs.max_interval = 0;
+  memset (phase_max, 0, sizeof phase_max);
   for (int i = 1; i <= N_STEPS; i++)
     {
       g_autoptr (PlCommand) cmd = pl_command_new_set_number (hose, "bore",
@@ -230,6 +299,7 @@ sweep_bore (PlWindow *window, const char *hose, double *frame, double *block)
   gtk_widget_remove_tick_callback (GTK_WIDGET (window), tick);
   *frame = fs.max_interval / 1000.0;
   *block = worst / 1000.0;
+  print_phases ("bore held down");
 }
 
 static gboolean
@@ -254,6 +324,7 @@ run_layout (PlApplication *app, const char *label, const char *path, int n)
       fprintf (stderr, "bench-editor: %s\n", error->message);
       return FALSE;
     }
+  watch_phases (GTK_WIDGET (window));
   doc = pl_window_get_document (window);
   hose = first_of_type (doc, "hose");
   mover = first_of_type (doc, "gauge");
