@@ -75,6 +75,8 @@ typedef struct
                                       * NaN for none */
   double pressure_max;               /* top of the ramp (Pa); <= 0 or NaN:
                                       * the highest pressure drawn */
+  GArray *label_boxes;               /* out, or NULL: a PlRect (world mm)
+                                      * appended for every label placed */
 } PlRenderOptions;
 
 /* Light style, SI, background, grid and legend on, ports off, no
