@@ -878,11 +878,45 @@ START_TEST (test_screenshots)
 }
 END_TEST
 
+/* The sheet follows the theme's own colours, not only the dark
+ * preference: run with GTK_THEME=Adwaita:dark (meson runs this case so,
+ * as test-editor-gtk-theme-dark) the canvas must be dark from the start. */
+START_TEST (test_canvas_follows_theme_colours)
+{
+  const char *theme = g_getenv ("GTK_THEME");
+  gboolean dark_theme = theme != NULL && g_str_has_suffix (theme, ":dark");
+  PlWindow *window = open_window ("samples/demo-glue-line.pline");
+  PlCanvas *canvas = canvas_of (window);
+  GdkRGBA fg;
+  double luma;
+
+  spin (100);
+  gtk_style_context_get_color (gtk_widget_get_style_context (GTK_WIDGET (canvas)), &fg);
+  if (dark_theme)
+    ck_assert_double_gt (fg.red + fg.green + fg.blue, 1.5);
+  ck_assert_int_eq (pl_canvas_get_style (canvas),
+                    fg.red + fg.green + fg.blue > 1.5 ? PL_RENDER_STYLE_DARK
+                                                      : PL_RENDER_STYLE_LIGHT);
+  {
+    g_autoptr (GdkTexture) t = render_widget (GTK_WIDGET (canvas));
+    luma = mean_luma (t);
+  }
+  save_shot (GTK_WIDGET (window), dark_theme ? "window-gtk-theme-dark.png"
+                                             : "window-gtk-theme-default.png");
+  printf ("figure: canvas mean luma under GTK_THEME=%s: %.3f\n", theme ? theme : "(unset)",
+          luma);
+  if (dark_theme)
+    ck_assert_double_lt (luma, 0.35);
+  close_window (window);
+}
+END_TEST
+
 static Suite *
 editor_suite (void)
 {
   Suite *s = suite_create ("editor");
   TCase *tc = tcase_create ("editor");
+  TCase *theme = tcase_create ("theme");
 
   tcase_set_timeout (tc, 120);
   tcase_add_unchecked_fixture (tc, app_setup, app_teardown);
@@ -900,6 +934,10 @@ editor_suite (void)
   tcase_add_test (tc, test_large_layout_edit_figure);
   tcase_add_test (tc, test_screenshots);
   suite_add_tcase (s, tc);
+  tcase_set_timeout (theme, 60);
+  tcase_add_unchecked_fixture (theme, app_setup, app_teardown);
+  tcase_add_test (theme, test_canvas_follows_theme_colours);
+  suite_add_tcase (s, theme);
   return s;
 }
 
