@@ -304,6 +304,8 @@ pl_window_drop_document (PlWindow *self)
       g_clear_signal_handler (&self->clean_id, self->undo);
       g_clear_signal_handler (&self->can_undo_id, self->undo);
       g_clear_signal_handler (&self->can_redo_id, self->undo);
+      g_clear_signal_handler (&self->undo_label_id, self->undo);
+      g_clear_signal_handler (&self->redo_label_id, self->undo);
     }
   g_clear_object (&self->scheduler);
   g_clear_object (&self->undo);
@@ -373,6 +375,8 @@ pl_window_class_init (PlWindowClass *klass)
   gtk_widget_class_bind_template_child (widget_class, PlWindow, toast_revealer);
   gtk_widget_class_bind_template_child (widget_class, PlWindow, toast_label);
   gtk_widget_class_bind_template_child (widget_class, PlWindow, recent_section);
+  gtk_widget_class_bind_template_child (widget_class, PlWindow, undo_button);
+  gtk_widget_class_bind_template_child (widget_class, PlWindow, redo_button);
 
   pl_window_class_install_actions (widget_class);
 }
@@ -425,6 +429,10 @@ pl_window_set_document (PlWindow   *self,
                                         G_CALLBACK (pl_window_undo_notify_cb), self);
   self->can_redo_id = g_signal_connect (self->undo, "notify::can-redo",
                                         G_CALLBACK (pl_window_undo_notify_cb), self);
+  self->undo_label_id = g_signal_connect (self->undo, "notify::undo-label",
+                                          G_CALLBACK (pl_window_undo_notify_cb), self);
+  self->redo_label_id = g_signal_connect (self->undo, "notify::redo-label",
+                                          G_CALLBACK (pl_window_undo_notify_cb), self);
 
   /* The canvas and the panels connect to "changed" before the scheduler,
    * but the scheduler's "fast-results" arrives within the same emission:

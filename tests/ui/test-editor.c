@@ -347,6 +347,62 @@ START_TEST (test_wire_refused)
 }
 END_TEST
 
+/* The button under widget that runs action, or NULL. */
+static GtkWidget *
+button_for_action (GtkWidget *widget, const char *action)
+{
+  if (GTK_IS_BUTTON (widget)
+      && g_strcmp0 (gtk_actionable_get_action_name (GTK_ACTIONABLE (widget)), action) == 0)
+    return widget;
+  for (GtkWidget *c = gtk_widget_get_first_child (widget); c != NULL;
+       c = gtk_widget_get_next_sibling (c))
+    {
+      GtkWidget *found = button_for_action (c, action);
+
+      if (found != NULL)
+        return found;
+    }
+  return NULL;
+}
+
+/* Undo and redo name the step in their tooltips, and follow each change. */
+START_TEST (test_undo_tooltips_name_the_step)
+{
+  PlWindow *window = open_window ("samples/demo-glue-line.pline");
+  PlUndoStack *undo = pl_window_get_undo_stack (window);
+  PlDocument *doc = pl_window_get_document (window);
+  GtkWidget *undo_button = button_for_action (GTK_WIDGET (window), "win.undo");
+  GtkWidget *redo_button = button_for_action (GTK_WIDGET (window), "win.redo");
+  const char *hose = id_of_tag (window, "H1");
+  g_autoptr (PlCommand) bore = pl_command_new_set_number (
+    hose, "bore", pl_part_get_number (pl_document_find_part (doc, hose), "bore") * 1.2);
+  g_autoptr (PlCommand) move = pl_command_new_move (
+    (const char *const[]) { hose, NULL }, 1, 5.0, 0.0);
+  g_autofree char *bore_label = NULL;
+  g_autofree char *tip = NULL;
+
+  ck_assert_ptr_nonnull (undo_button);
+  ck_assert_ptr_nonnull (redo_button);
+  ck_assert_str_eq (gtk_widget_get_tooltip_text (undo_button), "Undo (Ctrl+Z)");
+  ck_assert (pl_undo_stack_push (undo, bore, NULL));
+  bore_label = g_strdup (pl_undo_stack_get_undo_label (undo));
+  tip = g_strdup_printf ("Undo %s (Ctrl+Z)", bore_label);
+  ck_assert_str_eq (gtk_widget_get_tooltip_text (undo_button), tip);
+  ck_assert (pl_undo_stack_push (undo, move, NULL));
+  g_free (tip);
+  tip = g_strdup_printf ("Undo %s (Ctrl+Z)", pl_command_get_label (move));
+  ck_assert_str_eq (gtk_widget_get_tooltip_text (undo_button), tip);
+  activate (window, "win.undo");
+  g_free (tip);
+  tip = g_strdup_printf ("Redo %s (Shift+Ctrl+Z)", pl_command_get_label (move));
+  ck_assert_str_eq (gtk_widget_get_tooltip_text (redo_button), tip);
+  g_free (tip);
+  tip = g_strdup_printf ("Undo %s (Ctrl+Z)", bore_label);
+  ck_assert_str_eq (gtk_widget_get_tooltip_text (undo_button), tip);
+  close_window (window);
+}
+END_TEST
+
 /* --- bad files --- */
 
 static const char *const bad_files[] = {
@@ -923,6 +979,7 @@ editor_suite (void)
   tcase_add_loop_test (tc, test_open_sample, 0, G_N_ELEMENTS (samples));
   tcase_add_test (tc, test_shelf_wire_bore_undo);
   tcase_add_test (tc, test_wire_refused);
+  tcase_add_test (tc, test_undo_tooltips_name_the_step);
   tcase_add_loop_test (tc, test_bad_file_keeps_document, 0, G_N_ELEMENTS (bad_files));
   tcase_add_test (tc, test_save_as_reload);
   tcase_add_test (tc, test_recent_files_capped);
