@@ -733,6 +733,74 @@ START_TEST (test_zoom_actions_keep_centre)
 }
 END_TEST
 
+/* --- pinch and middle drag --- */
+
+/* The canvas's own controller of a type (for a drag: on button), or NULL. */
+static GtkEventController *
+canvas_controller (PlCanvas *canvas, GType type, guint button)
+{
+  g_autoptr (GListModel) list = gtk_widget_observe_controllers (GTK_WIDGET (canvas));
+
+  for (guint i = 0; i < g_list_model_get_n_items (list); i++)
+    {
+      g_autoptr (GObject) c = g_list_model_get_item (list, i);
+
+      if (G_TYPE_CHECK_INSTANCE_TYPE (c, type)
+          && (button == 0 || gtk_gesture_single_get_button (GTK_GESTURE_SINGLE (c)) == button))
+        return GTK_EVENT_CONTROLLER (c);
+    }
+  return NULL;
+}
+
+/* GTK 4 gives no way to inject touch or button events, so the gestures
+ * the canvas installed are driven through their own signals, as GTK's
+ * event handling would emit them: the handlers and the viewport maths are
+ * the real ones. */
+START_TEST (test_pinch_and_middle_drag)
+{
+  PlWindow *window = open_window ("samples/demo-glue-line.pline");
+  PlCanvas *canvas = canvas_of (window);
+  const PlViewport *vp = pl_canvas_get_viewport (canvas);
+  GtkEventController *zoom = canvas_controller (canvas, GTK_TYPE_GESTURE_ZOOM, 0);
+  GtkEventController *pan = canvas_controller (canvas, GTK_TYPE_GESTURE_DRAG,
+                                               GDK_BUTTON_MIDDLE);
+  PlPoint centre = { vp->width / 2, vp->height / 2 }, w0, w1;
+  double z0 = vp->zoom;
+
+  ck_assert_ptr_nonnull (zoom);
+  ck_assert_ptr_nonnull (pan);
+
+  /* Fingers spread to twice, then three times their distance: the zoom
+   * follows the scale, about the middle (no touch points to centre on). */
+  pl_viewport_screen_to_world (vp, centre, &w0);
+  g_signal_emit_by_name (zoom, "begin", NULL);
+  g_signal_emit_by_name (zoom, "scale-changed", 2.0);
+  ck_assert_double_eq_tol (vp->zoom, 2.0 * z0, 1e-9 * z0);
+  g_signal_emit_by_name (zoom, "scale-changed", 3.0);
+  ck_assert_double_eq_tol (vp->zoom, 3.0 * z0, 1e-9 * z0);
+  pl_viewport_screen_to_world (vp, centre, &w1);
+  ck_assert_double_eq_tol (w1.x, w0.x, 1e-9);
+  ck_assert_double_eq_tol (w1.y, w0.y, 1e-9);
+  /* A new pinch starts from where the last one left the zoom. */
+  g_signal_emit_by_name (zoom, "begin", NULL);
+  g_signal_emit_by_name (zoom, "scale-changed", 0.5);
+  ck_assert_double_eq_tol (vp->zoom, 1.5 * z0, 1e-9 * z0);
+
+  /* Middle drag: the drawing moves with the pointer, the whole offset of
+   * the drag and nothing more, however many updates it came in. */
+  pl_viewport_screen_to_world (vp, (PlPoint) { 300, 200 }, &w0);
+  g_signal_emit_by_name (pan, "drag-begin", 300.0, 200.0);
+  g_signal_emit_by_name (pan, "drag-update", 30.0, -20.0);
+  g_signal_emit_by_name (pan, "drag-update", 50.0, 10.0);
+  g_signal_emit_by_name (pan, "drag-end", 50.0, 10.0);
+  pl_viewport_screen_to_world (vp, (PlPoint) { 350, 210 }, &w1);
+  ck_assert_double_eq_tol (w1.x, w0.x, 1e-9);
+  ck_assert_double_eq_tol (w1.y, w0.y, 1e-9);
+  ck_assert_double_eq_tol (vp->zoom, 1.5 * z0, 1e-9 * z0);
+  close_window (window);
+}
+END_TEST
+
 /* --- large layout: edit to fast results --- */
 
 START_TEST (test_large_layout_edit_figure)
@@ -988,6 +1056,7 @@ editor_suite (void)
   tcase_add_test (tc, test_rubber_band_delete_rotate_flip);
   tcase_add_test (tc, test_copy_paste_keeps_internal_wires);
   tcase_add_test (tc, test_zoom_actions_keep_centre);
+  tcase_add_test (tc, test_pinch_and_middle_drag);
   tcase_add_test (tc, test_large_layout_edit_figure);
   tcase_add_test (tc, test_screenshots);
   suite_add_tcase (s, tc);
