@@ -452,6 +452,151 @@ START_TEST (test_bad_file_keeps_document)
 }
 END_TEST
 
+/* --- the unsaved-changes prompt and the file chooser --- */
+
+/* The newest toplevel of type that is transient for window, or NULL. */
+static GtkWindow *
+dialog_of (PlWindow *window, GType type)
+{
+  g_autoptr (GListModel) toplevels = g_object_ref (gtk_window_get_toplevels ());
+  GtkWindow *found = NULL;
+
+  for (guint i = 0; i < g_list_model_get_n_items (toplevels); i++)
+    {
+      g_autoptr (GObject) w = g_list_model_get_item (toplevels, i);
+
+      if (G_TYPE_CHECK_INSTANCE_TYPE (w, type)
+          && gtk_window_get_transient_for (GTK_WINDOW (w)) == GTK_WINDOW (window))
+        found = GTK_WINDOW (w);
+    }
+  return found;
+}
+
+static void
+make_dirty (PlWindow *window)
+{
+  g_autoptr (PlCommand) cmd = pl_command_new_set_number (id_of_tag (window, "H1"), "length",
+                                                         31.0);
+
+  ck_assert (pl_undo_stack_push (pl_window_get_undo_stack (window), cmd, NULL));
+  ck_assert (pl_window_get_dirty (window));
+}
+
+/* "New" on a changed layout asks first; Cancel keeps everything, Discard
+ * starts afresh, Save writes the file and then starts afresh. */
+START_TEST (test_new_asks_before_discarding)
+{
+  g_autoptr (GError) error = NULL;
+  g_autofree char *dir = g_dir_make_tmp ("pressline-prompt-XXXXXX", &error);
+  g_autofree char *src = source_path ("samples/demo-glue-line.pline");
+  g_autofree char *path = g_build_filename (dir, "prompt.pline", NULL);
+  g_autofree char *data = NULL;
+  g_autoptr (GFile) file = g_file_new_for_path (path);
+  g_autoptr (PlDocument) saved = NULL;
+  PlWindow *window = open_window (NULL);
+  PlDocument *doc;
+  GtkWindow *prompt;
+  gsize len;
+  char *text = NULL;
+  double length;
+
+  /* A copy of a sample, so that Save has a file of its own to write. */
+  ck_assert (g_file_get_contents (src, &data, &len, NULL));
+  ck_assert (g_file_set_contents (path, data, (gssize) len, NULL));
+  ck_assert (pl_window_load_file (window, file, &error));
+  doc = pl_window_get_document (window);
+  length = pl_part_get_number (pl_document_find_part_by_tag (doc, "H1"), "length");
+  ck_assert_double_ne (length, 31.0);
+  make_dirty (window);
+
+  /* Cancel. */
+  activate (window, "win.new");
+  prompt = dialog_of (window, GTK_TYPE_MESSAGE_DIALOG);
+  ck_assert_msg (prompt != NULL, "no prompt before discarding changes");
+  g_object_get (prompt, "text", &text, NULL);
+  ck_assert_msg (strstr (text, "prompt.pline") != NULL, "%s", text);
+  g_free (text);
+  gtk_dialog_response (GTK_DIALOG (prompt), GTK_RESPONSE_CANCEL);
+  spin (10);
+  ck_assert_ptr_null (dialog_of (window, GTK_TYPE_MESSAGE_DIALOG));
+  ck_assert_ptr_eq (pl_window_get_document (window), doc);
+  ck_assert (pl_window_get_dirty (window));
+
+  /* Discard. */
+  activate (window, "win.new");
+  prompt = dialog_of (window, GTK_TYPE_MESSAGE_DIALOG);
+  ck_assert_ptr_nonnull (prompt);
+  gtk_dialog_response (GTK_DIALOG (prompt), GTK_RESPONSE_REJECT);
+  spin (10);
+  ck_assert_ptr_ne (pl_window_get_document (window), doc);
+  ck_assert_uint_eq (pl_document_get_n_parts (pl_window_get_document (window)), 0);
+  ck_assert (!pl_window_get_dirty (window));
+  ck_assert_ptr_null (pl_window_get_file (window));
+  ck_assert_str_eq (gtk_window_get_title (GTK_WINDOW (window)), "Untitled layout — Pressline");
+  /* The file on disk kept what it had. */
+  saved = pl_layout_read_file (path, &error);
+  ck_assert_msg (saved != NULL, "%s", error ? error->message : "");
+  ck_assert_double_eq (pl_part_get_number (pl_document_find_part_by_tag (saved, "H1"),
+                                           "length"), length);
+  g_clear_object (&saved);
+
+  /* Save first. */
+  ck_assert (pl_window_load_file (window, file, &error));
+  make_dirty (window);
+  activate (window, "win.new");
+  prompt = dialog_of (window, GTK_TYPE_MESSAGE_DIALOG);
+  ck_assert_ptr_nonnull (prompt);
+  gtk_dialog_response (GTK_DIALOG (prompt), GTK_RESPONSE_ACCEPT);
+  spin (10);
+  ck_assert_uint_eq (pl_document_get_n_parts (pl_window_get_document (window)), 0);
+  saved = pl_layout_read_file (path, &error);
+  ck_assert_msg (saved != NULL, "%s", error ? error->message : "");
+  ck_assert_double_eq (pl_part_get_number (pl_document_find_part_by_tag (saved, "H1"),
+                                           "length"), 31.0);
+  close_window (window);
+  g_remove (path);
+  g_rmdir (dir);
+}
+END_TEST
+
+/* Save As through the window's own chooser: a name without the suffix
+ * gets it, the file is written, the title and the clean mark follow. */
+START_TEST (test_save_as_through_the_chooser)
+{
+  g_autoptr (GError) error = NULL;
+  g_autofree char *dir = g_dir_make_tmp ("pressline-chooser-XXXXXX", &error);
+  g_autofree char *path = g_build_filename (dir, "chosen.pline", NULL);
+  g_autoptr (GFile) folder = g_file_new_for_path (dir);
+  g_autoptr (PlDocument) back = NULL;
+  PlWindow *window = open_window ("samples/demo-glue-line.pline");
+  GtkWindow *chooser;
+
+  make_dirty (window);
+  activate (window, "win.save-as");
+  spin (50);
+  /* No portal under the test session: GTK's own chooser dialog stands in
+   * for the native one. */
+  chooser = dialog_of (window, GTK_TYPE_FILE_CHOOSER_DIALOG);
+  ck_assert_msg (chooser != NULL, "no file chooser for Save As");
+  ck_assert (gtk_file_chooser_set_current_folder (GTK_FILE_CHOOSER (chooser), folder, NULL));
+  gtk_file_chooser_set_current_name (GTK_FILE_CHOOSER (chooser), "chosen");
+  gtk_dialog_response (GTK_DIALOG (chooser), GTK_RESPONSE_ACCEPT);
+  /* The chooser hands on its answer from the main loop, and the window
+   * waits for a clean title: up to 5 s. */
+  for (int i = 0; i < 500 && pl_window_get_dirty (window); i++)
+    spin (10);
+  ck_assert_msg (g_file_test (path, G_FILE_TEST_EXISTS), "%s not written", path);
+  back = pl_layout_read_file (path, &error);
+  ck_assert_msg (back != NULL, "%s", error ? error->message : "");
+  ck_assert (pl_document_equal (back, pl_window_get_document (window)));
+  ck_assert (!pl_window_get_dirty (window));
+  ck_assert_str_eq (gtk_window_get_title (GTK_WINDOW (window)), "chosen.pline — Pressline");
+  close_window (window);
+  g_remove (path);
+  g_rmdir (dir);
+}
+END_TEST
+
 /* --- save as, reload, recent files --- */
 
 START_TEST (test_save_as_reload)
@@ -1050,6 +1195,8 @@ editor_suite (void)
   tcase_add_test (tc, test_undo_tooltips_name_the_step);
   tcase_add_loop_test (tc, test_bad_file_keeps_document, 0, G_N_ELEMENTS (bad_files));
   tcase_add_test (tc, test_save_as_reload);
+  tcase_add_test (tc, test_new_asks_before_discarding);
+  tcase_add_test (tc, test_save_as_through_the_chooser);
   tcase_add_test (tc, test_recent_files_capped);
   tcase_add_test (tc, test_title_tracks_unsaved);
   tcase_add_test (tc, test_drag_moves_snapped_one_step);
