@@ -27,7 +27,6 @@
 #include <math.h>
 #include <stdio.h>
 #include <stdlib.h>
-#include <string.h>
 
 #include "bench-layout.h"
 #include "pl-application.h"
@@ -45,69 +44,6 @@ typedef struct
   gint64 max_interval;
   guint n_ticks;
 } FrameStats;
-
-/* The longest update (tick callbacks), layout and paint phase of a frame,
- * so that a long frame says where its time went. */
-typedef enum
-{
-  PHASE_UPDATE,
-  PHASE_LAYOUT,
-  PHASE_PAINT,
-  N_PHASES
-} Phase;
-
-static const char *const phase_names[N_PHASES] = { "update", "layout", "paint" };
-static gint64 phase_start[N_PHASES];
-static gint64 phase_max[N_PHASES];
-
-static void
-phase_begin_cb (GdkFrameClock *clock, gpointer data)
-{
-  phase_start[GPOINTER_TO_INT (data)] = g_get_monotonic_time ();
-}
-
-static void
-phase_end_cb (GdkFrameClock *clock, gpointer data)
-{
-  Phase p = GPOINTER_TO_INT (data);
-  gint64 dt = g_get_monotonic_time () - phase_start[p];
-
-  if (phase_start[p] != 0 && dt > phase_max[p])
-    phase_max[p] = dt;
-}
-
-static void
-watch_phases (GtkWidget *window)
-{
-  GdkFrameClock *clock = gtk_widget_get_frame_clock (window);
-
-  /* update runs between "update" and "layout", layout between "layout"
-   * and "paint", paint between "paint" and "after-paint". */
-  g_signal_connect (clock, "update", G_CALLBACK (phase_begin_cb),
-                    GINT_TO_POINTER (PHASE_UPDATE));
-  g_signal_connect_after (clock, "update", G_CALLBACK (phase_end_cb),
-                          GINT_TO_POINTER (PHASE_UPDATE));
-  g_signal_connect (clock, "layout", G_CALLBACK (phase_begin_cb),
-                    GINT_TO_POINTER (PHASE_LAYOUT));
-  g_signal_connect_after (clock, "layout", G_CALLBACK (phase_end_cb),
-                          GINT_TO_POINTER (PHASE_LAYOUT));
-  g_signal_connect (clock, "paint", G_CALLBACK (phase_begin_cb),
-                    GINT_TO_POINTER (PHASE_PAINT));
-  g_signal_connect_after (clock, "paint", G_CALLBACK (phase_end_cb),
-                          GINT_TO_POINTER (PHASE_PAINT));
-}
-
-static void
-print_phases (const char *what)
-{
-  printf ("    %s, longest phases:", what);
-  for (int p = 0; p < N_PHASES; p++)
-    {
-      printf (" %s %.2f ms", phase_names[p], phase_max[p] / 1000.0);
-      phase_max[p] = 0;
-    }
-  printf ("\n");
-}
 
 static gboolean
 tick_cb (GtkWidget *widget, GdkFrameClock *clock, gpointer data)
@@ -138,6 +74,41 @@ run_for (guint ms)
         worst = MAX (worst, g_get_monotonic_time () - t0);
     }
   return worst;
+}
+
+/* One measured run: frame-clock ticks of the window and the longest
+ * main-loop block, from start to stop. */
+typedef struct
+{
+  FrameStats fs;
+  guint tick;
+  gint64 worst;
+} Measure;
+
+static void
+measure_start (Measure *m, PlWindow *window)
+{
+  *m = (Measure) { 0 };
+  m->tick = gtk_widget_add_tick_callback (GTK_WIDGET (window), tick_cb, &m->fs, NULL);
+  run_for (50);
+  m->fs.max_interval = 0;
+}
+
+/* Runs ms of main loop, counting it and since (a handler's start) in the
+ * longest block. */
+static void
+measure_frame (Measure *m, gint64 since, guint ms)
+{
+  m->worst = MAX (m->worst, g_get_monotonic_time () - since);
+  m->worst = MAX (m->worst, run_for (ms));
+}
+
+static void
+measure_stop (Measure *m, PlWindow *window, double *frame, double *block)
+{
+  gtk_widget_remove_tick_callback (GTK_WIDGET (window), m->tick);
+  *frame = m->fs.max_interval / 1000.0;
+  *block = m->worst / 1000.0;
 }
 
 static void
@@ -215,22 +186,15 @@ static void
 redraw_only (PlWindow *window, double *frame, double *block)
 {
   GtkWidget *canvas = pl_window_get_canvas (window);
-  FrameStats fs = { 0 };
-  guint tick = gtk_widget_add_tick_callback (GTK_WIDGET (window), tick_cb, &fs, NULL);
-  gint64 worst = 0;
+  Measure m;
 
-  run_for (50);
-  fs.max_interval = 0;
-  memset (phase_max, 0, sizeof phase_max);
+  measure_start (&m, window);
   for (int i = 1; i <= N_STEPS; i++)
     {
       gtk_widget_queue_draw (canvas);
-      worst = MAX (worst, run_for (16));
+      measure_frame (&m, g_get_monotonic_time (), 16);
     }
-  gtk_widget_remove_tick_callback (GTK_WIDGET (window), tick);
-  *frame = fs.max_interval / 1000.0;
-  *block = worst / 1000.0;
-  print_phases ("redraw only");
+  measure_stop (&m, window, frame, block);
 }
 
 /* A part dragged 60 frames; returns the longest frame interval and the
@@ -242,17 +206,12 @@ drag_part (PlWindow *window, const char *part_id, double *frame, double *block)
   PlDocument *doc = pl_window_get_document (window);
   const PlPart *part = pl_document_find_part (doc, part_id);
   PlPoint w = { pl_part_get_x (part), pl_part_get_y (part) }, s;
-  FrameStats fs = { 0 };
-  guint tick;
-  gint64 worst = 0;
   double scale;
+  Measure m;
 
   pl_viewport_world_to_screen (pl_canvas_get_viewport (canvas), w, &s);
   scale = pl_viewport_get_scale (pl_canvas_get_viewport (canvas));
-  tick = gtk_widget_add_tick_callback (GTK_WIDGET (window), tick_cb, &fs, NULL);
-  run_for (50);
-  fs.max_interval = 0;
-  memset (phase_max, 0, sizeof phase_max);
+  measure_start (&m, window);
   pl_canvas_pointer_press (canvas, s.x, s.y, 0);
   for (int i = 1; i <= N_STEPS; i++)
     {
@@ -261,15 +220,11 @@ drag_part (PlWindow *window, const char *part_id, double *frame, double *block)
       /* Back and forth over 40 mm, so every step moves it a grid step. */
       pl_canvas_pointer_motion (canvas, s.x + scale * 5.0 * (i % 16 < 8 ? i % 8 : 8 - i % 8),
                                 s.y + scale * 5.0 * (i % 3));
-      worst = MAX (worst, g_get_monotonic_time () - t0);
-      worst = MAX (worst, run_for (16));
+      measure_frame (&m, t0, 16);
     }
   pl_canvas_pointer_release (canvas, s.x, s.y);
-  run_for (30);
-  gtk_widget_remove_tick_callback (GTK_WIDGET (window), tick);
-  *frame = fs.max_interval / 1000.0;
-  *block = worst / 1000.0;
-  print_phases ("part drag");
+  measure_frame (&m, g_get_monotonic_time (), 30);
+  measure_stop (&m, window, frame, block);
 }
 
 /* A bore changed every frame, as a spin button held down changes it. */
@@ -279,13 +234,9 @@ sweep_bore (PlWindow *window, const char *hose, double *frame, double *block)
   PlUndoStack *undo = pl_window_get_undo_stack (window);
   PlDocument *doc = pl_window_get_document (window);
   double bore = pl_part_get_number (pl_document_find_part (doc, hose), "bore");
-  FrameStats fs = { 0 };
-  guint tick = gtk_widget_add_tick_callback (GTK_WIDGET (window), tick_cb, &fs, NULL);
-  gint64 worst = 0;
+  Measure m;
 
-  run_for (50);
-  fs.max_interval = 0;
-  memset (phase_max, 0, sizeof phase_max);
+  measure_start (&m, window);
   for (int i = 1; i <= N_STEPS; i++)
     {
       g_autoptr (PlCommand) cmd = pl_command_new_set_number (hose, "bore",
@@ -293,13 +244,9 @@ sweep_bore (PlWindow *window, const char *hose, double *frame, double *block)
       gint64 t0 = g_get_monotonic_time ();
 
       pl_undo_stack_push (undo, cmd, NULL);
-      worst = MAX (worst, g_get_monotonic_time () - t0);
-      worst = MAX (worst, run_for (16));
+      measure_frame (&m, t0, 16);
     }
-  gtk_widget_remove_tick_callback (GTK_WIDGET (window), tick);
-  *frame = fs.max_interval / 1000.0;
-  *block = worst / 1000.0;
-  print_phases ("bore held down");
+  measure_stop (&m, window, frame, block);
 }
 
 static gboolean
@@ -324,7 +271,6 @@ run_layout (PlApplication *app, const char *label, const char *path, int n)
       fprintf (stderr, "bench-editor: %s\n", error->message);
       return FALSE;
     }
-  watch_phases (GTK_WIDGET (window));
   doc = pl_window_get_document (window);
   hose = first_of_type (doc, "hose");
   mover = first_of_type (doc, "gauge");

@@ -35,6 +35,10 @@ app_setup (void)
 {
   g_autoptr (GError) error = NULL;
 
+  /* One application for every test case: a second one could not register
+   * its name on the bus while the first is alive. */
+  if (app != NULL)
+    return;
   /* Frame statistics of the canvas (read when a canvas is made). */
   g_setenv ("PRESSLINE_FRAME_STATS", "1", TRUE);
   app = pl_application_new ();
@@ -1188,7 +1192,7 @@ editor_suite (void)
   TCase *theme = tcase_create ("theme");
 
   tcase_set_timeout (tc, 120);
-  tcase_add_unchecked_fixture (tc, app_setup, app_teardown);
+  tcase_add_unchecked_fixture (tc, app_setup, NULL);
   tcase_add_loop_test (tc, test_open_sample, 0, G_N_ELEMENTS (samples));
   tcase_add_test (tc, test_shelf_wire_bore_undo);
   tcase_add_test (tc, test_wire_refused);
@@ -1208,7 +1212,7 @@ editor_suite (void)
   tcase_add_test (tc, test_screenshots);
   suite_add_tcase (s, tc);
   tcase_set_timeout (theme, 60);
-  tcase_add_unchecked_fixture (theme, app_setup, app_teardown);
+  tcase_add_unchecked_fixture (theme, app_setup, NULL);
   tcase_add_test (theme, test_canvas_follows_theme_colours);
   suite_add_tcase (s, theme);
   return s;
@@ -1217,6 +1221,10 @@ editor_suite (void)
 int
 main (int argc, char **argv)
 {
+  int status;
+
   gtk_init ();
-  return pl_check_run (editor_suite ());
+  status = pl_check_run (editor_suite ());
+  app_teardown ();
+  return status;
 }
