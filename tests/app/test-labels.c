@@ -37,11 +37,17 @@ START_TEST (test_placer_first_free)
   ck_assert_uint_eq (pl_label_placer_place (placer, cand, 3), 2);
   /* Nothing free: the first is used, n says so. */
   ck_assert_uint_eq (pl_label_placer_place (placer, cand, 1), 1);
-  /* Far apart boxes (other buckets) do not see each other. */
+  /* Far apart boxes (other buckets, negative ones too) do not see each
+   * other; a box spanning a great many buckets still sees them all. */
   {
     PlRect far = { 1000, -1000, 1010, -990 };
+    PlRect huge = { -1e6, -1e6, 1e6, 1e6 };
+    PlRect inside = { -500, -500, -490, -495 };
 
     ck_assert (pl_label_placer_is_free (placer, &far));
+    ck_assert (!pl_label_placer_is_free (placer, &huge));
+    pl_label_placer_block (placer, &huge);
+    ck_assert (!pl_label_placer_is_free (placer, &inside));
   }
 }
 END_TEST
