@@ -208,7 +208,8 @@ pl_compile_port_node (PlCompileWork *w, guint g)
   named = (guint) (w->set_drain[root] >= 0 ? w->set_drain[root] : w->set_first[root]);
   part = w->doc_parts[w->port_part[named]];
   key = pl_part_get_part_type (part)->ports[w->port_index[named]].key;
-  name = g_strdup_printf ("%s.%s", pl_part_get_tag (part), key);
+  /* Names are made for every node on every compile: no printf. */
+  name = g_strconcat (pl_part_get_tag (part), ".", key, NULL);
   elevation = pl_part_get_port_elevation (part, key);
 
   /* A drain's surface may well lie below the pipe end that pours into it;
@@ -246,7 +247,7 @@ pl_compile_drum_node (PlCompileWork *w, guint part_index, const char *port_key,
                       const char *what, pls_error *err)
 {
   const PlPart *part = w->doc_parts[part_index];
-  g_autofree char *name = g_strdup_printf ("%s %s", pl_part_get_tag (part), what);
+  g_autofree char *name = g_strconcat (pl_part_get_tag (part), " ", what, NULL);
   int node = pls_network_add_fixed_node (w->out->net,
                                          pl_part_get_port_elevation (part, port_key), 0.0,
                                          name, err);
@@ -295,7 +296,7 @@ pl_compile_part (PlCompileWork *w, guint pi, PlCompiledPart *cp, GError **error,
       {
         static const char *const legs[3] = { "a", "b", "branch" };
         pls_fitting_params p[3];
-        g_autofree char *centre_name = g_strdup_printf ("%s centre", tag);
+        g_autofree char *centre_name = g_strconcat (tag, " centre", NULL);
         if (!pl_part_get_tee_legs (part, p, error))
           return FALSE;
         /* The centre sits at the tee's elevation (that of its ports). */
@@ -307,7 +308,7 @@ pl_compile_part (PlCompileWork *w, guint pi, PlCompiledPart *cp, GError **error,
         pl_compile_note_node (w->out, cp->internal_node, (int) pi, -1);
         for (guint k = 0; k < 3; k++)
           {
-            g_autofree char *leg_name = g_strdup_printf ("%s.%s", tag, legs[k]);
+            g_autofree char *leg_name = g_strconcat (tag, ".", legs[k], NULL);
             if ((n1 = pl_compile_node_of (w, pi, legs[k])) < 0)
               return FALSE;
             e = pls_network_add_fitting (net, cp->internal_node, n1, &p[k], leg_name, err);

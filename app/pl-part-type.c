@@ -17,8 +17,10 @@ pl_part_type_find_param (const PlPartType *type, const char *key, guint *index)
   g_return_val_if_fail (type != NULL, NULL);
   if (key == NULL)
     return NULL;
+  /* Called for every value of every part on each compile: the first
+   * letter settles most mismatches without a call. */
   for (guint i = 0; i < type->n_params; i++)
-    if (g_str_equal (type->params[i].key, key))
+    if (type->params[i].key[0] == key[0] && strcmp (type->params[i].key, key) == 0)
       {
         if (index != NULL)
           *index = i;
@@ -34,7 +36,7 @@ pl_part_type_find_port (const PlPartType *type, const char *key, guint *index)
   if (key == NULL)
     return NULL;
   for (guint i = 0; i < type->n_ports; i++)
-    if (g_str_equal (type->ports[i].key, key))
+    if (type->ports[i].key[0] == key[0] && strcmp (type->ports[i].key, key) == 0)
       {
         if (index != NULL)
           *index = i;

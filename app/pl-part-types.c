@@ -364,11 +364,11 @@ static const PlParamSpec scenario_params[] = {
     .kind = PL_PARAM_NUMBER, .quantity = PL_QUANTITY_VISCOSITY, .default_number = 1.0,
     .min_bound = PL_BOUND_OPEN, .max_bound = PL_BOUND_NONE,
     .depends_on = "viscosity-law", .depends_mask = LAW_NEWTONIAN },
-  /* K carries units of Pa s^n; the viscosity units scale it correctly (the
-   * factor is that of the pascal), though their symbol omits the ^n. */
+  /* K carries units of Pa s^n, shown as such; a viscosity unit typed or
+   * stored for it reads as the n = 1 case (pl_unit_fits). */
   { .key = "consistency", .label = N_("Consistency K"),
     .help = N_("Power-law consistency K, in pascal seconds to the power n."),
-    .kind = PL_PARAM_NUMBER, .quantity = PL_QUANTITY_VISCOSITY, .default_number = 1.0,
+    .kind = PL_PARAM_NUMBER, .quantity = PL_QUANTITY_CONSISTENCY, .default_number = 1.0,
     .min_bound = PL_BOUND_OPEN, .max_bound = PL_BOUND_NONE,
     .depends_on = "viscosity-law", .depends_mask = LAW_POWER },
   { .key = "flow-index", .label = N_("Flow index n"),

@@ -285,24 +285,80 @@ boxed_text (PlRenderCtx *ctx, const char *text, double x, double y, gboolean bol
 }
 
 /* The dose bar: the shot's mass against the mean of all applicators, the
- * mean at two thirds of the bar (so +50 % still fits), the deviation in
- * figures after it, coloured by the scenario's uniformity tolerance. */
-static double
-dose_bar (PlRenderCtx *ctx, const PlPart *part, double x, double y, gboolean up)
+ * mean at two thirds of the bar (so +50 % still fits), coloured by the
+ * scenario's uniformity tolerance.  Its figures follow the bar on a
+ * screen (the deviation) and stand under it on a sheet (the inlet
+ * pressure, the mass and the deviation, kept to the applicator's width so
+ * they do not meet the next applicator's). */
+#define DOSE_BAR_MM 18.0
+#define DOSE_BAR_HEIGHT_MM 3.0
+#define DOSE_MEAN_AT_MM 12.0
+#define DOSE_TEXT_GAP_MM 1.2
+
+static char *
+dose_text (PlRenderCtx *ctx, const PlPart *part, double *dev)
 {
-  const double width = 18.0, height = 3.0, mean_at = 12.0;
-  double mass, dev, size = pl_render_text_size (ctx, PL_RENDER_VALUE_MM), w, h;
-  g_autofree char *text = NULL;
+  g_autofree char *m = NULL, *pr = NULL, *shot = NULL;
+  double mass, p;
+
+  if (!pl_results_get_shot (ctx->results, pl_part_get_id (part), &mass, dev, NULL)
+      || !isfinite (*dev))
+    return NULL;
+  if (!ctx->opts->show_dose_details)
+    /* Translators: a shot's deviation from the mean of all shots, in %. */
+    return g_strdup_printf (_("%+.1f %%"), 100.0 * *dev);
+  m = pl_unit_format (mass, PL_QUANTITY_MASS, ctx->opts->units, 3,
+                      PL_UNIT_DECIMAL_FROM_LOCALE);
+  if (pl_render_port_pressure (ctx, pl_part_get_id (part), "in", &p))
+    pr = pl_unit_format (p, PL_QUANTITY_PRESSURE, ctx->opts->units, 3,
+                         PL_UNIT_DECIMAL_FROM_LOCALE);
+  /* Translators: a shot's mass and its deviation from the mean of all
+   * shots, "0.449 g, +0.2 %". */
+  shot = g_strdup_printf (_("%s, %+.1f %%"), m, 100.0 * *dev);
+  return pr != NULL ? g_strconcat (pr, "\n", shot, NULL) : g_steal_pointer (&shot);
+}
+
+/* The block a dose bar and its figures take (mm), and the figures' size. */
+static void
+dose_block_size (PlRenderCtx *ctx, const char *text, double dev, double *width,
+                 double *height, double *text_w, double *text_h)
+{
+  double size = pl_render_text_size (ctx, PL_RENDER_VALUE_MM);
+
+  *text_w = *text_h = 0.0;
+  if (size > 0.0)
+    pl_render_layout_text (ctx, text, size, fabs (dev) > ctx->uniformity, text_w, text_h);
+  /* The mean mark reaches 0.8 mm above and below the bar. */
+  if (ctx->opts->show_dose_details)
+    {
+      *width = MAX (DOSE_BAR_MM, *text_w);
+      *height = DOSE_BAR_HEIGHT_MM + 1.6 + (*text_h > 0.0 ? DOSE_TEXT_GAP_MM + *text_h : 0.0);
+    }
+  else
+    {
+      *width = DOSE_BAR_MM + (*text_w > 0.0 ? 1.0 + *text_w : 0.0);
+      *height = MAX (DOSE_BAR_HEIGHT_MM + 1.6, *text_h);
+    }
+}
+
+/* Draws the block at (x, y0), its top left corner. */
+static void
+dose_bar (PlRenderCtx *ctx, const PlPart *part, double x, double y0)
+{
+  const double height = DOSE_BAR_HEIGHT_MM, mean_at = DOSE_MEAN_AT_MM;
+  double dev, bw, bh, w, h, y;
+  g_autofree char *text = dose_text (ctx, part, &dev);
   const PlColor *color;
 
-  if (!pl_results_get_shot (ctx->results, pl_part_get_id (part), &mass, &dev, NULL)
-      || !isfinite (dev))
-    return 0.0;
+  if (text == NULL)
+    return;
+  dose_block_size (ctx, text, dev, &bw, &bh, &w, &h);
+  y = ctx->opts->show_dose_details ? y0 + 0.8 : y0 + 0.5 * (bh - height);
   color = fabs (dev) <= ctx->uniformity ? &ctx->pal->dose_ok : &ctx->pal->dose_bad;
-  cairo_rectangle (ctx->cr, x, y, CLAMP (mean_at * (1.0 + dev), 0.0, width), height);
+  cairo_rectangle (ctx->cr, x, y, CLAMP (mean_at * (1.0 + dev), 0.0, DOSE_BAR_MM), height);
   pl_render_set_color (ctx, color);
   cairo_fill (ctx->cr);
-  cairo_rectangle (ctx->cr, x, y, width, height);
+  cairo_rectangle (ctx->cr, x, y, DOSE_BAR_MM, height);
   pl_render_set_color (ctx, &ctx->pal->ink);
   cairo_set_line_width (ctx->cr, pl_render_line_width (ctx, 0.25));
   cairo_stroke (ctx->cr);
@@ -310,88 +366,132 @@ dose_bar (PlRenderCtx *ctx, const PlPart *part, double x, double y, gboolean up)
   cairo_line_to (ctx->cr, x + mean_at, y + height + 0.8);
   cairo_set_line_width (ctx->cr, pl_render_line_width (ctx, 0.5));
   cairo_stroke (ctx->cr);
-  if (size == 0.0)
-    return height;
+  if (h == 0.0)
+    return;
+  pl_render_layout_text (ctx, text, pl_render_text_size (ctx, PL_RENDER_VALUE_MM),
+                         fabs (dev) > ctx->uniformity, &w, &h);
   if (ctx->opts->show_dose_details)
-    {
-      g_autofree char *m = pl_unit_format (mass, PL_QUANTITY_MASS, ctx->opts->units, 3,
-                                           PL_UNIT_DECIMAL_FROM_LOCALE);
-      g_autofree char *pr = NULL;
-      double p;
-
-      if (pl_render_port_pressure (ctx, pl_part_get_id (part), "in", &p))
-        pr = pl_unit_format (p, PL_QUANTITY_PRESSURE, ctx->opts->units, 3,
-                             PL_UNIT_DECIMAL_FROM_LOCALE);
-      /* Translators: a shot's mass and its deviation from the mean of all
-       * shots, "0.449 g, +0.2 %". */
-      text = g_strdup_printf (_("%s, %+.1f %%"), m, 100.0 * dev);
-      if (pr != NULL)
-        {
-          char *both = g_strconcat (pr, "\n", text, NULL);
-
-          g_free (text);
-          text = both;
-        }
-      /* Under the bar (over it when the labels stand above the part), so
-       * that the figures keep to the applicator's own width. */
-      pl_render_layout_text (ctx, text, size, fabs (dev) > ctx->uniformity, &w, &h);
-      pl_render_show_layout (ctx, x, up ? y - h - 1.2 : y + height + 1.2, &ctx->pal->text);
-      return height + 1.2 + h;
-    }
+    pl_render_show_layout (ctx, x, y + height + 0.8 + DOSE_TEXT_GAP_MM, &ctx->pal->text);
   else
-    /* Translators: a shot's deviation from the mean of all shots, in %. */
-    text = g_strdup_printf (_("%+.1f %%"), 100.0 * dev);
-  pl_render_layout_text (ctx, text, size, fabs (dev) > ctx->uniformity, &w, &h);
-  pl_render_show_layout (ctx, x + width + 1.0, y + 0.5 * height - 0.5 * h, &ctx->pal->text);
-  return MAX (height, h);
+    pl_render_show_layout (ctx, x + DOSE_BAR_MM + 1.0, y + 0.5 * height - 0.5 * h,
+                           &ctx->pal->text);
+}
+
+static char *
+gauge_text (PlRenderCtx *ctx, const PlPart *part)
+{
+  double p;
+
+  if (pl_render_text_size (ctx, PL_RENDER_VALUE_MM) == 0.0
+      || !pl_render_port_pressure (ctx, pl_part_get_id (part), "p", &p))
+    return NULL;
+  return pl_unit_format (p, PL_QUANTITY_PRESSURE, ctx->opts->units, 3,
+                         PL_UNIT_DECIMAL_FROM_LOCALE);
+}
+
+/* The size of what boxed_text draws. */
+static void
+boxed_text_size (PlRenderCtx *ctx, const char *text, gboolean bold, double *w, double *h)
+{
+  double size = pl_render_text_size (ctx, PL_RENDER_VALUE_MM);
+
+  *w = *h = 0.0;
+  if (size == 0.0)
+    return;
+  pl_render_layout_text (ctx, text, size, bold, w, h);
+  *w += 0.5 * *h;
 }
 
 void
-pl_render_part_overlay (PlRenderCtx *ctx, const PlPart *part, const PlRect *label,
-                        PlSide side)
+pl_render_part_overlay_size (PlRenderCtx *ctx, const PlPart *part, double *width,
+                             double *height)
 {
   const PlPartType *type = pl_part_get_part_type (part);
-  gboolean up = side == PL_SIDE_NORTH;
-  double x = side == PL_SIDE_WEST ? label->x1 - 22.0 : side == PL_SIDE_EAST
-             ? label->x0 : 0.5 * (label->x0 + label->x1) - 11.0;
-  double y = up ? label->y0 - 1.0 : label->y1 + 1.0;
 
+  *width = *height = 0.0;
+  if (ctx->results == NULL)
+    return;
   if (type->kind == PL_PART_GAUGE)
     {
-      double p, size = pl_render_text_size (ctx, PL_RENDER_VALUE_MM), w, h;
-      g_autofree char *text = NULL;
+      g_autofree char *text = gauge_text (ctx, part);
 
-      if (size == 0.0 || !pl_render_port_pressure (ctx, pl_part_get_id (part), "p", &p))
-        return;
-      text = pl_unit_format (p, PL_QUANTITY_PRESSURE, ctx->opts->units, 3,
-                             PL_UNIT_DECIMAL_FROM_LOCALE);
-      pl_render_layout_text (ctx, text, size, TRUE, &w, &h);
-      boxed_text (ctx, text, 0.5 * (label->x0 + label->x1) - 0.5 * w - 0.25 * h,
-                  up ? y - h : y, TRUE, NULL);
+      if (text != NULL)
+        boxed_text_size (ctx, text, TRUE, width, height);
     }
   else if (type->kind == PL_PART_APPLICATOR)
-    dose_bar (ctx, part, x, up ? y - 3.0 : y + 0.6, up);
+    {
+      double dev, w, h;
+      g_autofree char *text = dose_text (ctx, part, &dev);
+
+      if (text != NULL)
+        dose_block_size (ctx, text, dev, width, height, &w, &h);
+    }
 }
+
+void
+pl_render_part_overlay (PlRenderCtx *ctx, const PlPart *part, const PlRect *area)
+{
+  const PlPartType *type = pl_part_get_part_type (part);
+  double cx = 0.5 * (area->x0 + area->x1), w, h;
+
+  if (ctx->results == NULL)
+    return;
+  pl_render_part_overlay_size (ctx, part, &w, &h);
+  if (type->kind == PL_PART_GAUGE)
+    {
+      g_autofree char *text = gauge_text (ctx, part);
+
+      if (text != NULL)
+        boxed_text (ctx, text, cx - 0.5 * w, area->y0, TRUE, NULL);
+    }
+  else if (type->kind == PL_PART_APPLICATOR && w > 0.0)
+    dose_bar (ctx, part, cx - 0.5 * w, area->y0);
+}
+
+/* Where a pressure label may go around its port, nearest first: the four
+ * diagonals, then further out along them. */
+static const double pressure_label_reach[] = { 3.0, 8.0, 14.0 };
 
 void
 pl_render_pressure_label (PlRenderCtx *ctx, PlPoint anchor, const char *part_id,
                           const char *port_key)
 {
-  double p;
+  static const double dirs[4][2] = { { 1, -1 }, { -1, -1 }, { 1, 1 }, { -1, 1 } };
+  PlRect cand[G_N_ELEMENTS (pressure_label_reach) * 4];
+  double p, w, h;
+  guint n = 0, k;
   g_autofree char *text = NULL;
+  PlPoint corner;
 
   if (!pl_render_port_pressure (ctx, part_id, port_key, &p))
     return;
   text = pl_unit_format (p, PL_QUANTITY_PRESSURE, ctx->opts->units, 3,
                          PL_UNIT_DECIMAL_FROM_LOCALE);
-  /* A leader from the port to a label up and to the right. */
+  boxed_text_size (ctx, text, TRUE, &w, &h);
+  if (w == 0.0)
+    return;
+  for (guint r = 0; r < G_N_ELEMENTS (pressure_label_reach); r++)
+    for (guint d = 0; d < 4; d++)
+      {
+        double x = anchor.x + dirs[d][0] * pressure_label_reach[r];
+        double y = anchor.y + dirs[d][1] * pressure_label_reach[r];
+
+        /* The box's corner nearest the port sits at (x, y). */
+        cand[n++] = (PlRect) { dirs[d][0] > 0 ? x : x - w, dirs[d][1] > 0 ? y : y - h,
+                               dirs[d][0] > 0 ? x + w : x, dirs[d][1] > 0 ? y + h : y };
+      }
+  k = pl_render_place_label (ctx, cand, n);
+  if (k >= n)
+    k = 0;
+  /* A leader from the port to the box's nearest corner. */
+  corner.x = dirs[k % 4][0] > 0 ? cand[k].x0 : cand[k].x1;
+  corner.y = dirs[k % 4][1] > 0 ? cand[k].y0 : cand[k].y1;
   cairo_move_to (ctx->cr, anchor.x, anchor.y);
-  cairo_line_to (ctx->cr, anchor.x + 3.0, anchor.y - 3.0);
+  cairo_line_to (ctx->cr, corner.x, corner.y);
   pl_render_set_color (ctx, &ctx->pal->ink);
   cairo_set_line_width (ctx->cr, pl_render_line_width (ctx, 0.25));
   cairo_stroke (ctx->cr);
-  boxed_text (ctx, text, anchor.x + 3.0, anchor.y - 3.0 - 1.2 * PL_RENDER_VALUE_MM, TRUE,
-              NULL);
+  boxed_text (ctx, text, cand[k].x0, cand[k].y0, TRUE, NULL);
 }
 
 /* Diagonal stripes over a rectangle: the mark of things out of date. */

@@ -7,6 +7,7 @@
 #include <pango/pangocairo.h>
 
 #include "pl-geometry.h"
+#include "pl-label-placer.h"
 #include "pl-render.h"
 
 G_BEGIN_DECLS
@@ -45,6 +46,7 @@ typedef struct
   GHashTable *port_wires;      /* "part\nport" -> wire count */
   GHashTable *parts;           /* part id -> const PlPart * (borrowed) */
   GArray *route;               /* scratch PlPoint array */
+  PlLabelPlacer *placer;       /* symbols drawn and labels placed so far */
 } PlRenderCtx;
 
 /* pl-render.c */
@@ -60,6 +62,10 @@ void pl_render_layout_text (PlRenderCtx *ctx, const char *text, double size, gbo
 /* Draws the laid-out text with its top left at (x, y). */
 void pl_render_show_layout (PlRenderCtx *ctx, double x, double y, const PlColor *color);
 guint pl_render_port_wire_count (PlRenderCtx *ctx, const char *part_id, const char *port_key);
+/* Places a label at the first free candidate (pl_label_placer_place) and
+ * reports its box to the caller's label_boxes; returns the index taken
+ * (n: none was free, the first is used). */
+guint pl_render_place_label (PlRenderCtx *ctx, const PlRect *candidates, guint n);
 
 /* pl-render-symbols.c: the symbol of part in its own frame (cairo already
  * translated, turned and mirrored), fluid colour(s) from the overlay. */
@@ -105,8 +111,11 @@ void pl_render_flow_mark_path (PlRenderCtx *ctx, PlPoint p, double dx, double dy
 void pl_render_flow_mark_flush (PlRenderCtx *ctx);
 /* A part's result rows (a gauge's reading, an applicator's dose bar),
  * stacked on from its label block (world frame) on the label's side. */
-void pl_render_part_overlay (PlRenderCtx *ctx, const PlPart *part, const PlRect *label,
-                             PlSide side);
+/* The gauge reading or dose bar of a part, drawn at the top of area,
+ * centred; its size (0 x 0: none). */
+void pl_render_part_overlay_size (PlRenderCtx *ctx, const PlPart *part, double *width,
+                                  double *height);
+void pl_render_part_overlay (PlRenderCtx *ctx, const PlPart *part, const PlRect *area);
 void pl_render_pressure_label (PlRenderCtx *ctx, PlPoint anchor, const char *part_id,
                                const char *port_key);
 void pl_render_stale_badge (PlRenderCtx *ctx);

@@ -153,6 +153,16 @@ pl_render_port_wire_count (PlRenderCtx *ctx, const char *part_id, const char *po
   return GPOINTER_TO_UINT (g_hash_table_lookup (ctx->port_wires, key));
 }
 
+guint
+pl_render_place_label (PlRenderCtx *ctx, const PlRect *candidates, guint n)
+{
+  guint k = pl_label_placer_place (ctx->placer, candidates, n);
+
+  if (ctx->opts->label_boxes != NULL)
+    g_array_append_val (ctx->opts->label_boxes, candidates[k < n ? k : 0]);
+  return k;
+}
+
 static gboolean
 is_selected (PlRenderCtx *ctx, const char *id)
 {
@@ -171,33 +181,38 @@ static void
 draw_grid (PlRenderCtx *ctx)
 {
   PlViewport probe;
-  double minor, major;
+  cairo_matrix_t m;
+  double minor, major, dx0, dy0, dx1, dy1;
   const PlRect *c = &ctx->clip;
 
   /* The spacing rule of the canvas, at the scale of this draw. */
   pl_viewport_init (&probe, 1, 1);
   probe.zoom = ctx->scale / PL_VIEWPORT_PX_PER_MM;
   pl_viewport_grid_spacing (&probe, 8.0, &minor, &major);
-  cairo_set_line_width (ctx->cr, ctx->px);
+  /* Hairlines one device pixel wide, as whole-pixel boxes without
+   * antialiasing: the same look as stroked hairlines, at a fraction of the
+   * cost (stroking every line of a 50 % view took longer than all the
+   * parts).  The sheet is only ever scaled and moved, never turned, so
+   * world x maps to device x alone. */
+  cairo_get_matrix (ctx->cr, &m);
+  cairo_save (ctx->cr);
+  cairo_identity_matrix (ctx->cr);
+  cairo_set_antialias (ctx->cr, CAIRO_ANTIALIAS_NONE);
+  cairo_clip_extents (ctx->cr, &dx0, &dy0, &dx1, &dy1);
   for (guint pass = 0; pass < 2; pass++)
     {
       double step = pass == 0 ? minor : major;
 
       for (double x = ceil (c->x0 / step) * step; x <= c->x1; x += step)
         if (pass == 1 || fmod (fabs (x), major) != 0.0)
-          {
-            cairo_move_to (ctx->cr, x, c->y0);
-            cairo_line_to (ctx->cr, x, c->y1);
-          }
+          cairo_rectangle (ctx->cr, floor (m.xx * x + m.x0), dy0, 1.0, dy1 - dy0);
       for (double y = ceil (c->y0 / step) * step; y <= c->y1; y += step)
         if (pass == 1 || fmod (fabs (y), major) != 0.0)
-          {
-            cairo_move_to (ctx->cr, c->x0, y);
-            cairo_line_to (ctx->cr, c->x1, y);
-          }
+          cairo_rectangle (ctx->cr, dx0, floor (m.yy * y + m.y0), dx1 - dx0, 1.0);
       pl_render_set_color (ctx, pass == 0 ? &ctx->pal->grid_minor : &ctx->pal->grid_major);
-      cairo_stroke (ctx->cr);
+      cairo_fill (ctx->cr);
     }
+  cairo_restore (ctx->cr);
 }
 
 /* --- wires --- */
@@ -403,24 +418,25 @@ draw_junctions (PlRenderCtx *ctx)
 
 /* --- parts --- */
 
-/* The first side of the part's box (south, north, east, west) that no port
- * faces: the tag and value go there, clear of the wires. */
-static PlSide
-free_side (const PlPart *part)
+/* The sides of the part's box, those no port faces first (south, north,
+ * east, west within each group): labels go there, clear of the wires. */
+static void
+label_sides (const PlPart *part, PlSide sides[4])
 {
   static const PlSide order[] = { PL_SIDE_SOUTH, PL_SIDE_NORTH, PL_SIDE_EAST, PL_SIDE_WEST };
   const PlPartType *type = pl_part_get_part_type (part);
+  guint n = 0;
 
-  for (guint o = 0; o < G_N_ELEMENTS (order); o++)
-    {
-      gboolean used = FALSE;
+  for (guint pass = 0; pass < 2; pass++)
+    for (guint o = 0; o < G_N_ELEMENTS (order); o++)
+      {
+        gboolean used = FALSE;
 
-      for (guint k = 0; k < type->n_ports && !used; k++)
-        used = pl_part_get_port_side (part, type->ports[k].key) == order[o];
-      if (!used)
-        return order[o];
-    }
-  return PL_SIDE_SOUTH;
+        for (guint k = 0; k < type->n_ports && !used; k++)
+          used = pl_part_get_port_side (part, type->ports[k].key) == order[o];
+        if (used == (pass == 1))
+          sides[n++] = order[o];
+      }
 }
 
 /* Places a block of w x h next to box on side, gap mm away. */
@@ -447,7 +463,47 @@ place_block (const PlRect *box, PlSide side, double w, double h, double gap, PlR
     }
 }
 
-/* Tag and key value beside the symbol, upright whatever the part's turn. */
+/* How far from the symbol a label block may go (mm): beside it, then
+ * further out with a leader line back to the symbol. */
+static const double label_gaps[] = { 1.2, 6.0, 12.0 };
+#define LABEL_NEAR_GAP 1.2
+
+/* A thin line from the middle of the symbol's side to the label moved away
+ * from it, so it still reads as the part's. */
+static void
+draw_leader (PlRenderCtx *ctx, const PlRect *box, PlSide side, const PlRect *block)
+{
+  double cx = 0.5 * (box->x0 + box->x1), cy = 0.5 * (box->y0 + box->y1);
+  double bx = 0.5 * (block->x0 + block->x1), by = 0.5 * (block->y0 + block->y1);
+
+  switch (side)
+    {
+    case PL_SIDE_NORTH:
+      cairo_move_to (ctx->cr, cx, box->y0);
+      cairo_line_to (ctx->cr, bx, block->y1);
+      break;
+    case PL_SIDE_EAST:
+      cairo_move_to (ctx->cr, box->x1, cy);
+      cairo_line_to (ctx->cr, block->x0, by);
+      break;
+    case PL_SIDE_WEST:
+      cairo_move_to (ctx->cr, box->x0, cy);
+      cairo_line_to (ctx->cr, block->x1, by);
+      break;
+    case PL_SIDE_SOUTH:
+    default:
+      cairo_move_to (ctx->cr, cx, box->y1);
+      cairo_line_to (ctx->cr, bx, block->y0);
+      break;
+    }
+  pl_render_set_color (ctx, &ctx->pal->text_dim);
+  cairo_set_line_width (ctx->cr, pl_render_line_width (ctx, 0.2));
+  cairo_stroke (ctx->cr);
+}
+
+/* Tag, key value and the part's result (gauge reading, dose bar) as one
+ * block beside the symbol, upright whatever the part's turn, where it
+ * overlaps no symbol and no label placed before it. */
 static void
 draw_part_labels (PlRenderCtx *ctx, const PlPart *part, const PlRect *box)
 {
@@ -455,9 +511,10 @@ draw_part_labels (PlRenderCtx *ctx, const PlPart *part, const PlRect *box)
   double tag_size = pl_render_text_size (ctx, PL_RENDER_TAG_MM);
   double value_size = pl_render_text_size (ctx, PL_RENDER_VALUE_MM);
   g_autofree char *value = NULL;
-  double tw = 0, th = 0, vw = 0, vh = 0, w, h;
-  PlSide side = free_side (part);
-  PlRect block;
+  double tw = 0, th = 0, vw = 0, vh = 0, ow = 0, oh = 0, w, h;
+  PlSide sides[4];
+  PlRect cand[G_N_ELEMENTS (label_gaps) * 4], block;
+  guint k, n = 0;
   gboolean value_inside = type->kind == PL_PART_PUMP;
 
   if (tag_size == 0.0)
@@ -475,26 +532,41 @@ draw_part_labels (PlRenderCtx *ctx, const PlPart *part, const PlRect *box)
       pl_render_show_layout (ctx, cx - 0.5 * vw, cy - 0.5 * vh, &ctx->pal->text);
       vw = vh = 0.0;
     }
+  pl_render_part_overlay_size (ctx, part, &ow, &oh);
   pl_render_layout_text (ctx, pl_part_get_tag (part), tag_size, TRUE, &tw, &th);
-  w = MAX (tw, vw);
-  h = th + vh;
-  place_block (box, side, w, h, 1.2, &block);
+  w = MAX (MAX (tw, vw), ow);
+  h = th + vh + (oh > 0.0 ? oh + 1.0 : 0.0);
+  label_sides (part, sides);
+  for (guint g = 0; g < G_N_ELEMENTS (label_gaps); g++)
+    for (guint s = 0; s < 4; s++)
+      place_block (box, sides[s], w, h, label_gaps[g], &cand[n++]);
+  k = pl_render_place_label (ctx, cand, n);
+  if (k >= n)
+    k = 0;
+  block = cand[k];
+  if (label_gaps[k / 4] > LABEL_NEAR_GAP)
+    draw_leader (ctx, box, sides[k % 4], &block);
   {
+    PlSide side = sides[k % 4];
     double tx = side == PL_SIDE_EAST ? block.x0
                 : side == PL_SIDE_WEST ? block.x1 - tw : 0.5 * (block.x0 + block.x1 - tw);
+    double vx = side == PL_SIDE_EAST ? block.x0
+                : side == PL_SIDE_WEST ? block.x1 - vw : 0.5 * (block.x0 + block.x1 - vw);
 
+    pl_render_layout_text (ctx, pl_part_get_tag (part), tag_size, TRUE, NULL, NULL);
     pl_render_show_layout (ctx, tx, block.y0, &ctx->pal->text);
+    if (vw > 0.0)
+      {
+        pl_render_layout_text (ctx, value, value_size, FALSE, NULL, NULL);
+        pl_render_show_layout (ctx, vx, block.y0 + th, &ctx->pal->text_dim);
+      }
   }
-  if (vw > 0.0)
+  if (oh > 0.0)
     {
-      double vx = side == PL_SIDE_EAST ? block.x0
-                  : side == PL_SIDE_WEST ? block.x1 - vw : 0.5 * (block.x0 + block.x1 - vw);
+      PlRect area = { block.x0, block.y0 + th + vh + 1.0, block.x1, block.y1 };
 
-      pl_render_layout_text (ctx, value, value_size, FALSE, NULL, NULL);
-      pl_render_show_layout (ctx, vx, block.y0 + th, &ctx->pal->text_dim);
+      pl_render_part_overlay (ctx, part, &area);
     }
-  if (ctx->results != NULL)
-    pl_render_part_overlay (ctx, part, &block, side);
 }
 
 static void
@@ -510,6 +582,29 @@ outline_box (PlRenderCtx *ctx, const PlRect *box, double grow, double radius)
   cairo_close_path (ctx->cr);
 }
 
+/* Labels reach out beyond the box (further when moved aside): cull with
+ * room for them. */
+static gboolean
+part_in_reach (PlRenderCtx *ctx, const PlRect *box, PlRect *reach)
+{
+  *reach = (PlRect) { box->x0 - 45, box->y0 - 35, box->x1 + 45, box->y1 + 35 };
+  return pl_rect_intersects (reach, &ctx->clip);
+}
+
+/* Every symbol that will be drawn, so that no label lands on one. */
+static void
+block_symbols (PlRenderCtx *ctx)
+{
+  for (guint i = 0; i < pl_document_get_n_parts (ctx->doc); i++)
+    {
+      PlRect box, reach;
+
+      pl_geometry_part_bounds (pl_document_get_part (ctx->doc, i), &box);
+      if (part_in_reach (ctx, &box, &reach))
+        pl_label_placer_block (ctx->placer, &box);
+    }
+}
+
 static void
 draw_part (PlRenderCtx *ctx, const PlPart *part)
 {
@@ -519,9 +614,7 @@ draw_part (PlRenderCtx *ctx, const PlPart *part)
   const char *id = pl_part_get_id (part);
 
   pl_geometry_part_bounds (part, &box);
-  /* Labels reach out beyond the box: cull with room for them. */
-  reach = (PlRect) { box.x0 - 30, box.y0 - 20, box.x1 + 30, box.y1 + 20 };
-  if (!pl_rect_intersects (&reach, &ctx->clip))
+  if (!part_in_reach (ctx, &box, &reach))
     return;
   if (is_selected (ctx, id) || is_hovered (ctx, id))
     {
@@ -725,6 +818,10 @@ pl_render_document (cairo_t *cr, PlDocument *doc, PlResults *results,
   if (!(isfinite (ctx.scale) && ctx.scale > 0.0))
     ctx.scale = 1.0;
   ctx.px = 1.0 / ctx.scale;
+  /* Curves (round joins, dials, nozzles) flattened to a quarter of a
+   * device pixel rather than cairo's tenth: no visible difference, about
+   * half the polygon edges to rasterise. */
+  cairo_set_tolerance (cr, 0.25);
   cairo_clip_extents (cr, &ctx.clip.x0, &ctx.clip.y0, &ctx.clip.x1, &ctx.clip.y1);
   ctx.stale = opts->results_stale
               || (results != NULL
@@ -766,6 +863,9 @@ pl_render_document (cairo_t *cr, PlDocument *doc, PlResults *results,
   draw_junctions (&ctx);
   if (ctx.scale < PL_RENDER_OUTLINE_SCALE)
     draw_outlines (&ctx);
+  ctx.placer = pl_label_placer_new ();
+  if (ctx.scale >= PL_RENDER_OUTLINE_SCALE)
+    block_symbols (&ctx);
   for (guint i = 0; i < pl_document_get_n_parts (doc); i++)
     draw_part (&ctx, pl_document_get_part (doc, i));
   draw_ports (&ctx);
@@ -799,6 +899,7 @@ pl_render_document (cairo_t *cr, PlDocument *doc, PlResults *results,
   else if (ctx.stale)
     pl_render_stale_badge (&ctx);
 
+  pl_label_placer_free (ctx.placer);
   pango_font_description_free (ctx.font);
   g_object_unref (ctx.layout);
   g_array_unref (ctx.route);

@@ -90,6 +90,8 @@ typedef struct
                                       * under PL_RENDER_PAPER_TEXT_MM on the
                                       * paper, whatever the device; 0: the
                                       * screen's pixel rules */
+  GArray *label_boxes;               /* out, or NULL: a PlRect (world mm)
+                                      * appended for every label placed */
 } PlRenderOptions;
 
 /* The ports whose pressure a drawing labels (PlRenderOptions'

@@ -179,6 +179,14 @@ static const PlUnit pl_units[PL_N_UNITS] = {
                               N_("cubic centimeter per foot and ksi"),
                               PL_QUANTITY_HOSE_EXPANSION,
                               1e-6 / (PL_NIST_FOOT * 1e3 * PL_NIST_PSI), 0.0 },
+  /* K of the power law tau = K (du/dy)^n is in Pa s^n (Chhabra &
+   * Richardson, Non-Newtonian Flow and Applied Rheology, 2nd ed., ch. 1;
+   * from memory); the exponent is the flow index, so the symbol carries a
+   * literal n. */
+  [PL_UNIT_PA_S_N] = { PL_UNIT_PA_S_N, "Pa.s(n)", "Pa·sⁿ", N_("pascal second to the n"),
+                       PL_QUANTITY_CONSISTENCY, 1.0, 0.0 },
+  [PL_UNIT_MPA_S_N] = { PL_UNIT_MPA_S_N, "mPa.s(n)", "mPa·sⁿ",
+                        N_("millipascal second to the n"), PL_QUANTITY_CONSISTENCY, 1e-3, 0.0 },
 };
 
 /* What people type for each unit, besides its key and symbol (which are
@@ -205,6 +213,7 @@ static const PlUnitAlias pl_unit_aliases[] = {
   { PL_UNIT_IN, "''" },
   { PL_UNIT_FT, "foot" }, { PL_UNIT_FT, "feet" }, { PL_UNIT_FT, "'" },
   { PL_UNIT_PA_S, "N.s/m2" },
+  { PL_UNIT_PA_S_N, "Pa.s^n" }, { PL_UNIT_MPA_S_N, "mPa.s^n" },
   { PL_UNIT_CP, "cps" }, { PL_UNIT_CP, "centipoise" },
   { PL_UNIT_POISE, "poise" },
   { PL_UNIT_L, "liter" }, { PL_UNIT_L, "liters" }, { PL_UNIT_L, "litre" },
@@ -303,6 +312,11 @@ static const PlQuantityInfo pl_quantities[PL_N_QUANTITIES] = {
   [PL_QUANTITY_HOSE_EXPANSION] = { "hose-expansion", N_("Volumetric expansion"),
                                    N_("a volumetric expansion"), PL_QUANTITY_HOSE_EXPANSION,
                                    FALSE, { PL_UNIT_ML_PER_M_BAR, PL_UNIT_CC_PER_FT_KSI } },
+  /* US datasheets give K in the same units as SI ones (common practice, no
+   * source). */
+  [PL_QUANTITY_CONSISTENCY] = { "consistency", N_("Consistency"), N_("a consistency"),
+                                PL_QUANTITY_CONSISTENCY, FALSE,
+                                { PL_UNIT_MPA_S_N, PL_UNIT_MPA_S_N } },
 };
 
 static const char *const pl_unit_system_keys[PL_N_UNIT_SYSTEMS] = { "si", "us" };
@@ -415,8 +429,13 @@ pl_unit_from_key (const char *key)
 gboolean
 pl_unit_fits (PlUnitId unit, PlQuantity quantity)
 {
-  return pl_unit_valid (unit) && pl_quantity_valid (quantity)
-         && pl_units[unit].kind == pl_quantities[quantity].unit_kind;
+  if (!pl_unit_valid (unit) || !pl_quantity_valid (quantity))
+    return FALSE;
+  /* A consistency typed or stored in a viscosity unit is the n = 1 case:
+   * files name it "Pa.s" (the coherent unit, found first). */
+  if (quantity == PL_QUANTITY_CONSISTENCY && pl_units[unit].kind == PL_QUANTITY_VISCOSITY)
+    return TRUE;
+  return pl_units[unit].kind == pl_quantities[quantity].unit_kind;
 }
 
 double

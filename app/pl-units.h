@@ -53,6 +53,8 @@ typedef enum
   PL_QUANTITY_VELOCITY,       /* m/s */
   PL_QUANTITY_SHEAR_RATE,     /* wall shear rate, 1/s */
   PL_QUANTITY_HOSE_EXPANSION, /* volume per hose length and pressure, m^3/(m Pa) */
+  PL_QUANTITY_CONSISTENCY,    /* power-law consistency K, Pa s^n (n: the flow index);
+                               * viscosity units are accepted too (n = 1) */
   PL_N_QUANTITIES
 } PlQuantity;
 
@@ -95,6 +97,8 @@ typedef enum
   PL_UNIT_PER_S,
   /* hose expansion */
   PL_UNIT_M3_PER_M_PA, PL_UNIT_ML_PER_M_BAR, PL_UNIT_CC_PER_FT_KSI,
+  /* power-law consistency */
+  PL_UNIT_PA_S_N, PL_UNIT_MPA_S_N,
   PL_N_UNITS
 } PlUnitId;
 

@@ -327,22 +327,22 @@ pl_canvas_update_hover (PlCanvas *self)
   pl_canvas_set_hover (self, wire != NULL ? pl_wire_get_id (wire) : NULL);
 }
 
+/* The sheet follows the theme the widget is actually drawn with, whatever
+ * says so (the dark preference, a theme name, GTK_THEME=Adwaita:dark, a
+ * high-contrast inverse theme): light text means a dark background.  The
+ * colour is the canvas's own CSS colour; luma by Rec. 709 weights. */
 static PlRenderStyle
 pl_canvas_theme_style (PlCanvas *self)
 {
-  GtkSettings *settings = gtk_widget_get_settings (GTK_WIDGET (self));
-  gboolean dark = FALSE;
-  g_autofree char *theme = NULL;
+  GdkRGBA fg;
+  double luma;
 
   if (self->style_forced)
     return self->style;
-  g_object_get (settings, "gtk-application-prefer-dark-theme", &dark,
-                "gtk-theme-name", &theme, NULL);
-  /* A theme named "...-dark" (Adwaita-dark, HighContrastInverse aside) is
-   * dark whatever the preference says. */
-  if (theme != NULL && g_str_has_suffix (theme, "-dark"))
-    dark = TRUE;
-  return dark ? PL_RENDER_STYLE_DARK : PL_RENDER_STYLE_LIGHT;
+  /* gtk_widget_get_color () would do, but it came with GTK 4.10. */
+  gtk_style_context_get_color (gtk_widget_get_style_context (GTK_WIDGET (self)), &fg);
+  luma = 0.2126 * fg.red + 0.7152 * fg.green + 0.0722 * fg.blue;
+  return luma > 0.5 ? PL_RENDER_STYLE_DARK : PL_RENDER_STYLE_LIGHT;
 }
 
 static void
@@ -717,12 +717,15 @@ pl_canvas_snapshot (GtkWidget   *widget,
   PlCanvas *self = PL_CANVAS (widget);
   int width = gtk_widget_get_width (widget);
   int height = gtk_widget_get_height (widget);
-  const PlPalette *pal = pl_palette_get (self->style);
+  const PlPalette *pal;
   PlRenderOptions opts;
   cairo_t *cr;
 
   if (width <= 0 || height <= 0)
     return;
+  /* A theme change restyles the widget and redraws it: read it here. */
+  self->style = pl_canvas_theme_style (self);
+  pal = pl_palette_get (self->style);
   self->n_draws++;
   cr = gtk_snapshot_append_cairo (snapshot, &GRAPHENE_RECT_INIT (0, 0, width, height));
   if (self->doc == NULL || !self->vp_valid)
@@ -1009,7 +1012,7 @@ PlRenderStyle
 pl_canvas_get_style (PlCanvas *self)
 {
   g_return_val_if_fail (PL_IS_CANVAS (self), PL_RENDER_STYLE_LIGHT);
-  return self->style;
+  return pl_canvas_theme_style (self);
 }
 
 const PlViewport *

@@ -487,8 +487,11 @@ pl_param_row_sync (PlParamRow *self)
   else
     now = *pl_part_get_value (part, self->spec->key);
 
-  /* A refused value stays shown until the document's own value moves. */
-  if (self->have_shown && pl_value_equal (&self->shown, &now) && self->reason_text != NULL)
+  /* A refused value stays shown until the document's own value moves; an
+   * unchanged one needs nothing (every row is told of every edit, and
+   * setting a spin button again costs more than the solve of a small
+   * layout). */
+  if (self->have_shown && pl_value_equal (&self->shown, &now))
     return;
   if (self->have_shown)
     pl_value_clear (&self->shown);

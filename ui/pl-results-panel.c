@@ -11,16 +11,33 @@
 
 /* --- one row of a table (private) --- */
 
+/* A row stays in its table while the set of parts and ports stays the same;
+ * only its cells change.  They are worked out when the row is shown (bound
+ * to a widget) or asked for, for the panel's current snapshot, so an update
+ * costs the rows on screen and not the whole table. */
 #define PL_TYPE_RESULT_ROW (pl_result_row_get_type ())
 G_DECLARE_FINAL_TYPE (PlResultRow, pl_result_row, PL, RESULT_ROW, GObject)
 
 struct _PlResultRow
 {
   GObject parent_instance;
+  PlResultsTable table;
   char *part_id;       /* may be NULL (a finding about the whole line) */
-  GStrv cells;
+  guint part_index;    /* in the compiled layout the rows were made from */
+  guint port_index;    /* points table only */
+  GStrv cells;         /* NULL until worked out */
+  guint64 generation;  /* the panel's snapshot generation the cells are of */
+  guint n_bound;       /* cell widgets showing this row */
   pls_severity severity;
 };
+
+enum
+{
+  ROW_SIGNAL_CHANGED,  /* the cells changed: bound widgets show them again */
+  N_ROW_SIGNALS
+};
+
+static guint row_signals[N_ROW_SIGNALS];
 
 G_DEFINE_FINAL_TYPE (PlResultRow, pl_result_row, G_TYPE_OBJECT)
 
@@ -38,6 +55,9 @@ static void
 pl_result_row_class_init (PlResultRowClass *klass)
 {
   G_OBJECT_CLASS (klass)->finalize = pl_result_row_finalize;
+  row_signals[ROW_SIGNAL_CHANGED] = g_signal_new ("changed", G_TYPE_FROM_CLASS (klass),
+                                                  G_SIGNAL_RUN_LAST, 0, NULL, NULL, NULL,
+                                                  G_TYPE_NONE, 0);
 }
 
 static void
@@ -45,15 +65,26 @@ pl_result_row_init (PlResultRow *self)
 {
 }
 
-/* Takes cells. */
+/* Takes cells (may be NULL: worked out when needed). */
 static PlResultRow *
-pl_result_row_new (const char *part_id, GStrv cells)
+pl_result_row_new (PlResultsTable table, const char *part_id, guint part_index,
+                   guint port_index, GStrv cells)
 {
   PlResultRow *row = g_object_new (PL_TYPE_RESULT_ROW, NULL);
 
+  row->table = table;
   row->part_id = g_strdup (part_id);
+  row->part_index = part_index;
+  row->port_index = port_index;
   row->cells = cells;
   return row;
+}
+
+static gboolean
+pl_result_row_same_cells (PlResultRow *row, char **cells)
+{
+  return row->cells != NULL && g_strv_equal ((const char *const *) row->cells,
+                                             (const char *const *) cells);
 }
 
 /* --- the panel --- */
@@ -65,6 +96,11 @@ enum
 };
 
 static guint signals[N_SIGNALS];
+
+/* The pages that are refreshed on their own: the three tables (numbered as
+ * PlResultsTable) and the plots. */
+#define PAGE_PLOT PL_N_RESULTS_TABLES
+#define N_PAGES (PL_N_RESULTS_TABLES + 1)
 
 struct _PlResultsPanel
 {
@@ -90,6 +126,15 @@ struct _PlResultsPanel
   gboolean user_chose;
   gboolean building_chooser;
   char *chooser_signature;
+
+  /* Incremental refresh: every new snapshot bumps the generation and marks
+   * the pages dirty; the visible page is brought up to date once a frame
+   * (tick_id), hidden ones when they are shown or asked for. */
+  guint64 generation;
+  gboolean dirty[N_PAGES];
+  char *row_signature[PL_N_RESULTS_TABLES];  /* parts and ports the rows are of */
+  guint tick_id;
+  guint n_rebuilds[PL_N_RESULTS_TABLES];
 };
 
 G_DEFINE_FINAL_TYPE (PlResultsPanel, pl_results_panel, GTK_TYPE_WIDGET)
@@ -115,6 +160,27 @@ pl_results_panel_unit_symbol (PlResultsPanel *self, PlQuantity q)
 
 /* --- list item factories --- */
 
+static char **pl_results_panel_row_cells (PlResultsPanel *self, PlResultRow *row);
+
+/* The full text of a cell (it may be ellipsized).  Asked for when the
+ * tooltip is about to show: setting a tooltip text on every change would
+ * ask the display where the pointer is, a round trip per cell. */
+static gboolean
+cell_query_tooltip_cb (GtkWidget  *label,
+                       int         x,
+                       int         y,
+                       gboolean    keyboard,
+                       GtkTooltip *tooltip,
+                       gpointer    data)
+{
+  const char *text = gtk_label_get_text (GTK_LABEL (label));
+
+  if (text == NULL || text[0] == '\0')
+    return FALSE;
+  gtk_tooltip_set_text (tooltip, text);
+  return TRUE;
+}
+
 static void
 cell_setup_cb (GtkSignalListItemFactory *factory, GtkListItem *item, gpointer data)
 {
@@ -125,19 +191,49 @@ cell_setup_cb (GtkSignalListItemFactory *factory, GtkListItem *item, gpointer da
   gtk_label_set_ellipsize (GTK_LABEL (label), PANGO_ELLIPSIZE_END);
   if (numeric)
     gtk_widget_add_css_class (label, "numeric");
+  g_object_set_data (G_OBJECT (label), "column", data);
+  gtk_widget_set_has_tooltip (label, TRUE);
+  g_signal_connect (label, "query-tooltip", G_CALLBACK (cell_query_tooltip_cb), NULL);
   gtk_list_item_set_child (item, label);
+}
+
+static void
+cell_show (PlResultRow *row, GtkWidget *label)
+{
+  guint col = GPOINTER_TO_UINT (g_object_get_data (G_OBJECT (label), "column"));
+  const char *text = row->cells != NULL && col < g_strv_length (row->cells)
+                     ? row->cells[col] : "";
+
+  gtk_label_set_text (GTK_LABEL (label), text);
+}
+
+static void
+cell_changed_cb (PlResultRow *row, GtkWidget *label)
+{
+  cell_show (row, label);
 }
 
 static void
 cell_bind_cb (GtkSignalListItemFactory *factory, GtkListItem *item, gpointer data)
 {
+  PlResultsPanel *panel = g_object_get_data (G_OBJECT (factory), "panel");
   PlResultRow *row = gtk_list_item_get_item (item);
-  guint col = GPOINTER_TO_UINT (data);
   GtkWidget *label = gtk_list_item_get_child (item);
-  const char *text = col < g_strv_length (row->cells) ? row->cells[col] : "";
 
-  gtk_label_set_text (GTK_LABEL (label), text);
-  gtk_widget_set_tooltip_text (label, text[0] != '\0' ? text : NULL);
+  pl_results_panel_row_cells (panel, row);
+  cell_show (row, label);
+  g_signal_connect (row, "changed", G_CALLBACK (cell_changed_cb), label);
+  row->n_bound++;
+}
+
+static void
+cell_unbind_cb (GtkSignalListItemFactory *factory, GtkListItem *item, gpointer data)
+{
+  PlResultRow *row = gtk_list_item_get_item (item);
+  GtkWidget *label = gtk_list_item_get_child (item);
+
+  g_signal_handlers_disconnect_by_func (row, cell_changed_cb, label);
+  row->n_bound--;
 }
 
 static void
@@ -181,12 +277,15 @@ finding_bind_cb (GtkSignalListItemFactory *factory, GtkListItem *item, gpointer 
                                ? _("Activate to select the part on the drawing") : NULL);
 }
 
+static void pl_results_panel_flush_page (PlResultsPanel *self, guint page);
+
 static void
 pl_results_panel_emit_row (PlResultsPanel *self, PlResultsTable table, guint position)
 {
-  g_autoptr (PlResultRow) row = g_list_model_get_item (G_LIST_MODEL (self->stores[table]),
-                                                       position);
+  g_autoptr (PlResultRow) row = NULL;
 
+  pl_results_panel_flush_page (self, table);
+  row = g_list_model_get_item (G_LIST_MODEL (self->stores[table]), position);
   if (row != NULL && row->part_id != NULL)
     g_signal_emit (self, signals[SIGNAL_PART_ACTIVATED], 0, row->part_id);
 }
@@ -234,8 +333,11 @@ pl_results_panel_make_table (PlResultsPanel *self, PlResultsTable table, const c
       GtkColumnViewColumn *col;
 
       g_object_set_data (G_OBJECT (f), "numeric", GINT_TO_POINTER (numeric[c]));
-      g_signal_connect (f, "setup", G_CALLBACK (cell_setup_cb), NULL);
-      g_signal_connect (f, "bind", G_CALLBACK (cell_bind_cb), GUINT_TO_POINTER (c));
+      /* Not a reference: the factory lives inside the panel. */
+      g_object_set_data (G_OBJECT (f), "panel", self);
+      g_signal_connect (f, "setup", G_CALLBACK (cell_setup_cb), GUINT_TO_POINTER (c));
+      g_signal_connect (f, "bind", G_CALLBACK (cell_bind_cb), NULL);
+      g_signal_connect (f, "unbind", G_CALLBACK (cell_unbind_cb), NULL);
       col = gtk_column_view_column_new ("", f);
       gtk_column_view_column_set_resizable (col, TRUE);
       gtk_column_view_column_set_expand (col, !numeric[c] && c == n_columns - 1);
@@ -306,44 +408,32 @@ pl_results_panel_transient (PlResultsPanel *self)
   return self->full;
 }
 
-static void
-pl_results_panel_fill_points (PlResultsPanel *self, PlResults *s, PlResults *t)
+/* The cells of the points row of a part's port. */
+static GStrv
+pl_results_panel_point_cells (PlResultsPanel *self, PlResults *s, PlResults *t,
+                              const PlCompiledPart *part, guint p)
 {
-  PlCompiled *compiled = pl_results_get_compiled (s);
+  const char *port = part->type->ports[p].key;
+  GStrv cells = g_new0 (char *, 8);
+  double v = 0.0;
+  gboolean ok;
 
-  for (guint i = 0; i < pl_compiled_get_n_parts (compiled); i++)
-    {
-      const PlCompiledPart *part = pl_compiled_get_part (compiled, i);
-
-      for (guint p = 0; p < part->type->n_ports; p++)
-        {
-          const char *port = part->type->ports[p].key;
-          GStrv cells = g_new0 (char *, 8);
-          double v = 0.0;
-          gboolean ok;
-
-          cells[0] = g_strdup (part->tag);
-          cells[1] = g_strdup (_(part->type->ports[p].label));
-          ok = pl_results_get_port_pressure (s, part->id, port, PL_PRESSURE_IDLE, &v);
-          cells[2] = pl_results_panel_fmt (self, ok, v, PL_QUANTITY_PRESSURE);
-          ok = pl_results_get_port_pressure (s, part->id, port, PL_PRESSURE_STEADY_OPEN, &v);
-          cells[3] = pl_results_panel_fmt (self, ok, v, PL_QUANTITY_PRESSURE);
-          ok = t != NULL && pl_results_get_port_pressure (t, part->id, port,
-                                                          PL_PRESSURE_CYCLE_MIN, &v);
-          cells[4] = pl_results_panel_fmt (self, ok, v, PL_QUANTITY_PRESSURE);
-          ok = t != NULL && pl_results_get_port_pressure (t, part->id, port,
-                                                          PL_PRESSURE_CYCLE_MAX, &v);
-          cells[5] = pl_results_panel_fmt (self, ok, v, PL_QUANTITY_PRESSURE);
-          ok = t != NULL && pl_results_get_port_recovery (t, part->id, port, &v);
-          cells[6] = ok && v < 0.0 ? g_strdup (_("none"))
-                     : pl_results_panel_fmt (self, ok, v, PL_QUANTITY_TIME);
-          {
-            g_autoptr (PlResultRow) row = pl_result_row_new (part->id, cells);
-
-            g_list_store_append (self->stores[PL_RESULTS_TABLE_POINTS], row);
-          }
-        }
-    }
+  cells[0] = g_strdup (part->tag);
+  cells[1] = g_strdup (_(part->type->ports[p].label));
+  ok = pl_results_get_port_pressure (s, part->id, port, PL_PRESSURE_IDLE, &v);
+  cells[2] = pl_results_panel_fmt (self, ok, v, PL_QUANTITY_PRESSURE);
+  ok = pl_results_get_port_pressure (s, part->id, port, PL_PRESSURE_STEADY_OPEN, &v);
+  cells[3] = pl_results_panel_fmt (self, ok, v, PL_QUANTITY_PRESSURE);
+  ok = t != NULL && pl_results_get_port_pressure (t, part->id, port, PL_PRESSURE_CYCLE_MIN,
+                                                  &v);
+  cells[4] = pl_results_panel_fmt (self, ok, v, PL_QUANTITY_PRESSURE);
+  ok = t != NULL && pl_results_get_port_pressure (t, part->id, port, PL_PRESSURE_CYCLE_MAX,
+                                                  &v);
+  cells[5] = pl_results_panel_fmt (self, ok, v, PL_QUANTITY_PRESSURE);
+  ok = t != NULL && pl_results_get_port_recovery (t, part->id, port, &v);
+  cells[6] = ok && v < 0.0 ? g_strdup (_("none"))
+             : pl_results_panel_fmt (self, ok, v, PL_QUANTITY_TIME);
+  return cells;
 }
 
 static char *
@@ -425,67 +515,188 @@ pl_results_panel_other (PlResultsPanel *self, const PlCompiledPart *part, PlResu
   return g_string_free (g_steal_pointer (&out), FALSE);
 }
 
-static void
-pl_results_panel_fill_parts (PlResultsPanel *self, PlResults *s, PlResults *t)
+/* The cells of a part's row in the parts table. */
+static GStrv
+pl_results_panel_part_cells (PlResultsPanel *self, PlResults *s, PlResults *t,
+                             const PlCompiledPart *part)
 {
-  PlCompiled *compiled = pl_results_get_compiled (s);
+  GStrv cells = g_new0 (char *, 9);
+  pls_line_result lr;
+  gboolean line = pl_results_get_line (s, part->id, PL_CASE_STEADY_OPEN, &lr);
+  double flow = 0.0, mass = 0.0, dev = 0.0;
+  gboolean ok;
 
-  for (guint i = 0; i < pl_compiled_get_n_parts (compiled); i++)
-    {
-      const PlCompiledPart *part = pl_compiled_get_part (compiled, i);
-      GStrv cells = g_new0 (char *, 9);
-      pls_line_result lr;
-      gboolean line = pl_results_get_line (s, part->id, PL_CASE_STEADY_OPEN, &lr);
-      double flow = 0.0, mass = 0.0, dev = 0.0;
-      gboolean ok;
-      g_autoptr (PlResultRow) row = NULL;
-
-      cells[0] = g_strdup (part->tag);
-      cells[1] = g_strdup (_(part->type->name));
-      ok = part->type->kind != PL_PART_GAUGE && part->type->kind != PL_PART_DRAIN
-           && part->type->kind != PL_PART_TEE
-           && pl_results_get_flow (s, part->id, 0, PL_CASE_STEADY_OPEN, &flow);
-      cells[2] = pl_results_panel_fmt (self, ok, flow, PL_QUANTITY_FLOW);
-      cells[3] = pl_results_panel_fmt (self, line, lr.velocity, PL_QUANTITY_VELOCITY);
-      cells[4] = line ? g_strdup_printf ("%.0f", lr.reynolds) : g_strdup ("–");
-      ok = t != NULL && pl_results_get_shot (t, part->id, &mass, &dev, NULL);
-      cells[5] = pl_results_panel_fmt (self, ok, mass, PL_QUANTITY_MASS);
-      /* Translators: a signed percentage in a table cell, "+1.2 %". */
-      cells[6] = ok ? g_strdup_printf (_("%+.2f %%"), 100.0 * dev) : g_strdup ("–");
-      cells[7] = pl_results_panel_other (self, part, s, t);
-      row = pl_result_row_new (part->id, cells);
-      g_list_store_append (self->stores[PL_RESULTS_TABLE_PARTS], row);
-    }
+  cells[0] = g_strdup (part->tag);
+  cells[1] = g_strdup (_(part->type->name));
+  ok = part->type->kind != PL_PART_GAUGE && part->type->kind != PL_PART_DRAIN
+       && part->type->kind != PL_PART_TEE
+       && pl_results_get_flow (s, part->id, 0, PL_CASE_STEADY_OPEN, &flow);
+  cells[2] = pl_results_panel_fmt (self, ok, flow, PL_QUANTITY_FLOW);
+  cells[3] = pl_results_panel_fmt (self, line, lr.velocity, PL_QUANTITY_VELOCITY);
+  cells[4] = line ? g_strdup_printf ("%.0f", lr.reynolds) : g_strdup ("–");
+  ok = t != NULL && pl_results_get_shot (t, part->id, &mass, &dev, NULL);
+  cells[5] = pl_results_panel_fmt (self, ok, mass, PL_QUANTITY_MASS);
+  /* Translators: a signed percentage in a table cell, "+1.2 %". */
+  cells[6] = ok ? g_strdup_printf (_("%+.2f %%"), 100.0 * dev) : g_strdup ("–");
+  cells[7] = pl_results_panel_other (self, part, s, t);
+  return cells;
 }
 
+/* Replaces the rows of a table with rows (a GPtrArray of PlResultRow). */
 static void
-pl_results_panel_fill_findings (PlResultsPanel *self, PlResults *s, PlResults *t)
+pl_results_panel_replace_rows (PlResultsPanel *self, PlResultsTable table, GPtrArray *rows)
+{
+  GListModel *model = G_LIST_MODEL (self->stores[table]);
+
+  g_list_store_splice (self->stores[table], 0, g_list_model_get_n_items (model),
+                       rows->pdata, rows->len);
+  self->n_rebuilds[table]++;
+}
+
+/* The findings are few and change as a whole: the list is replaced only
+ * when one of them reads differently. */
+static void
+pl_results_panel_refresh_findings (PlResultsPanel *self, PlResults *s, PlResults *t)
 {
   /* The full snapshot repeats the steady findings and adds the cycle's and
    * the shutdown's; when it is current it is the whole story. */
   PlResults *r = t != NULL ? t : s;
+  GListModel *model = G_LIST_MODEL (self->stores[PL_RESULTS_TABLE_FINDINGS]);
+  g_autoptr (GPtrArray) rows = g_ptr_array_new_with_free_func (g_object_unref);
+  gboolean same;
 
-  for (guint i = 0; i < pl_results_get_n_findings (r); i++)
+  for (guint i = 0; r != NULL && i < pl_results_get_n_findings (r); i++)
     {
       const PlFinding *f = pl_results_get_finding (r, i);
       GStrv cells = g_new0 (char *, 3);
-      g_autoptr (PlResultRow) row = NULL;
+      PlResultRow *row;
 
       cells[0] = g_strdup (pl_finding_get_severity_label (f->severity));
       cells[1] = pl_finding_format_sentence (f, r, &self->prefs);
-      row = pl_result_row_new (f->part_id, cells);
+      row = pl_result_row_new (PL_RESULTS_TABLE_FINDINGS, f->part_id, 0, 0, cells);
       row->severity = f->severity;
-      g_list_store_append (self->stores[PL_RESULTS_TABLE_FINDINGS], row);
+      g_ptr_array_add (rows, row);
     }
-  if (pl_results_get_n_findings (r) == 0)
+  if (r != NULL && pl_results_get_n_findings (r) == 0)
     {
       GStrv cells = g_new0 (char *, 3);
-      g_autoptr (PlResultRow) row = NULL;
 
       cells[0] = g_strdup (pl_finding_get_severity_label (PLS_SEVERITY_INFO));
       cells[1] = g_strdup (_("The design checks found nothing to report."));
-      row = pl_result_row_new (NULL, cells);
-      g_list_store_append (self->stores[PL_RESULTS_TABLE_FINDINGS], row);
+      g_ptr_array_add (rows, pl_result_row_new (PL_RESULTS_TABLE_FINDINGS, NULL, 0, 0, cells));
+    }
+  same = rows->len == g_list_model_get_n_items (model);
+  for (guint i = 0; same && i < rows->len; i++)
+    {
+      g_autoptr (PlResultRow) old = g_list_model_get_item (model, i);
+      PlResultRow *row = g_ptr_array_index (rows, i);
+
+      same = old->severity == row->severity && g_strcmp0 (old->part_id, row->part_id) == 0
+             && pl_result_row_same_cells (old, row->cells);
+    }
+  if (!same)
+    pl_results_panel_replace_rows (self, PL_RESULTS_TABLE_FINDINGS, rows);
+}
+
+/* What the rows of a table are of, in order: a new row set is due when it
+ * changes (parts added, removed, re-typed), not when figures or tags do. */
+static char *
+pl_results_panel_row_signature (PlCompiled *compiled)
+{
+  GString *sig = g_string_new (NULL);
+
+  for (guint i = 0; i < pl_compiled_get_n_parts (compiled); i++)
+    {
+      const PlCompiledPart *part = pl_compiled_get_part (compiled, i);
+
+      g_string_append_printf (sig, "%s:%s;", part->id, part->type->key);
+    }
+  return g_string_free (sig, FALSE);
+}
+
+static GStrv
+pl_results_panel_make_cells (PlResultsPanel *self, PlResultsTable table, PlResultRow *row)
+{
+  PlResults *s = pl_results_panel_steady (self);
+  PlResults *t = pl_results_panel_transient (self);
+  PlCompiled *compiled = s != NULL ? pl_results_get_compiled (s) : NULL;
+  const PlCompiledPart *part = NULL;
+
+  if (compiled != NULL && row->part_index < pl_compiled_get_n_parts (compiled))
+    part = pl_compiled_get_part (compiled, row->part_index);
+  /* The row set follows the snapshot (its signature), so this holds; a
+   * blank row is the safe answer if it ever did not. */
+  if (part == NULL || g_strcmp0 (part->id, row->part_id) != 0
+      || (table == PL_RESULTS_TABLE_POINTS && row->port_index >= part->type->n_ports))
+    return g_new0 (char *, 1);
+  return table == PL_RESULTS_TABLE_POINTS
+         ? pl_results_panel_point_cells (self, s, t, part, row->port_index)
+         : pl_results_panel_part_cells (self, s, t, part);
+}
+
+/* The row's cells for the current snapshot, worked out if they are older;
+ * TRUE when they changed.  The row says so to the widgets showing it. */
+static gboolean
+pl_results_panel_update_row (PlResultsPanel *self, PlResultRow *row)
+{
+  GStrv cells;
+
+  /* Findings rows are made with their cells and never go out of date. */
+  if (row->table == PL_RESULTS_TABLE_FINDINGS || row->generation == self->generation)
+    return FALSE;
+  row->generation = self->generation;
+  cells = pl_results_panel_make_cells (self, row->table, row);
+  if (pl_result_row_same_cells (row, cells))
+    {
+      g_strfreev (cells);
+      return FALSE;
+    }
+  g_strfreev (row->cells);
+  row->cells = cells;
+  return TRUE;
+}
+
+static char **
+pl_results_panel_row_cells (PlResultsPanel *self, PlResultRow *row)
+{
+  pl_results_panel_update_row (self, row);
+  return row->cells;
+}
+
+/* A table of per-part or per-port rows: new rows when the row set changed,
+ * else the cells of the rows on screen in place (the others when shown). */
+static void
+pl_results_panel_refresh_rows (PlResultsPanel *self, PlResultsTable table, PlResults *s)
+{
+  GListModel *model = G_LIST_MODEL (self->stores[table]);
+  PlCompiled *compiled = s != NULL ? pl_results_get_compiled (s) : NULL;
+  g_autofree char *sig = compiled != NULL ? pl_results_panel_row_signature (compiled) : NULL;
+
+  if (g_strcmp0 (sig, self->row_signature[table]) != 0)
+    {
+      g_autoptr (GPtrArray) rows = g_ptr_array_new_with_free_func (g_object_unref);
+
+      for (guint i = 0; compiled != NULL && i < pl_compiled_get_n_parts (compiled); i++)
+        {
+          const PlCompiledPart *part = pl_compiled_get_part (compiled, i);
+
+          if (table == PL_RESULTS_TABLE_PARTS)
+            g_ptr_array_add (rows, pl_result_row_new (table, part->id, i, 0, NULL));
+          else
+            for (guint p = 0; p < part->type->n_ports; p++)
+              g_ptr_array_add (rows, pl_result_row_new (table, part->id, i, p, NULL));
+        }
+      g_free (self->row_signature[table]);
+      self->row_signature[table] = g_steal_pointer (&sig);
+      pl_results_panel_replace_rows (self, table, rows);
+      return;
+    }
+  for (guint i = 0; i < g_list_model_get_n_items (model); i++)
+    {
+      g_autoptr (PlResultRow) row = g_list_model_get_item (model, i);
+
+      if (row->n_bound > 0 && pl_results_panel_update_row (self, row))
+        g_signal_emit (row, row_signals[ROW_SIGNAL_CHANGED], 0);
     }
 }
 
@@ -679,26 +890,87 @@ pl_results_panel_refresh_plots (PlResultsPanel *self)
     }
 }
 
+/* --- bringing the pages up to date --- */
+
+static guint
+pl_results_panel_visible_page (PlResultsPanel *self)
+{
+  GtkWidget *child = gtk_stack_get_visible_child (GTK_STACK (self->stack));
+
+  for (guint i = 0; i < PL_N_RESULTS_TABLES; i++)
+    if (child == self->pages[i])
+      return i;
+  return PAGE_PLOT;
+}
+
 static void
-pl_results_panel_refresh (PlResultsPanel *self)
+pl_results_panel_flush_page (PlResultsPanel *self, guint page)
 {
   PlResults *s = pl_results_panel_steady (self);
   PlResults *t = pl_results_panel_transient (self);
 
-  for (guint i = 0; i < PL_N_RESULTS_TABLES; i++)
-    g_list_store_remove_all (self->stores[i]);
-  pl_results_panel_set_titles (self);
+  if (!self->dirty[page])
+    return;
+  self->dirty[page] = FALSE;
+  switch (page)
+    {
+    case PL_RESULTS_TABLE_POINTS:
+    case PL_RESULTS_TABLE_PARTS:
+      pl_results_panel_refresh_rows (self, page, s);
+      break;
+    case PL_RESULTS_TABLE_FINDINGS:
+      pl_results_panel_refresh_findings (self, s, t);
+      break;
+    case PAGE_PLOT:
+    default:
+      if (s != NULL)
+        pl_results_panel_build_chooser (self, s);
+      pl_results_panel_refresh_plots (self);
+      break;
+    }
+}
+
+static gboolean
+pl_results_panel_tick_cb (GtkWidget     *widget,
+                          GdkFrameClock *clock,
+                          gpointer       user_data)
+{
+  PlResultsPanel *self = PL_RESULTS_PANEL (widget);
+
+  self->tick_id = 0;
+  pl_results_panel_flush_page (self, pl_results_panel_visible_page (self));
+  return G_SOURCE_REMOVE;
+}
+
+/* One update per frame, in the frame's update phase, however many
+ * snapshots arrived since the last one; none while the panel is hidden. */
+static void
+pl_results_panel_schedule (PlResultsPanel *self)
+{
+  if (self->tick_id == 0 && gtk_widget_get_mapped (GTK_WIDGET (self))
+      && self->dirty[pl_results_panel_visible_page (self)])
+    self->tick_id = gtk_widget_add_tick_callback (GTK_WIDGET (self), pl_results_panel_tick_cb,
+                                                  NULL, NULL);
+}
+
+/* The snapshot or the units changed: every page is out of date. */
+static void
+pl_results_panel_invalidate (PlResultsPanel *self)
+{
+  self->generation++;
+  for (guint i = 0; i < N_PAGES; i++)
+    self->dirty[i] = TRUE;
   gtk_widget_set_visible (self->stale_bar, self->stale);
   for (guint i = 0; i < PL_N_RESULTS_TABLES; i++)
     gtk_widget_set_opacity (self->pages[i], self->stale ? 0.5 : 1.0);
-  if (s != NULL)
-    {
-      pl_results_panel_fill_points (self, s, t);
-      pl_results_panel_fill_parts (self, s, t);
-      pl_results_panel_fill_findings (self, s, t);
-      pl_results_panel_build_chooser (self, s);
-    }
-  pl_results_panel_refresh_plots (self);
+  pl_results_panel_schedule (self);
+}
+
+static void
+stack_visible_child_cb (GObject *stack, GParamSpec *pspec, PlResultsPanel *self)
+{
+  /* A page coming into view is brought up to date before it is drawn. */
+  pl_results_panel_flush_page (self, pl_results_panel_visible_page (self));
 }
 
 /* --- GObject --- */
@@ -708,6 +980,11 @@ pl_results_panel_dispose (GObject *object)
 {
   PlResultsPanel *self = PL_RESULTS_PANEL (object);
 
+  if (self->tick_id != 0)
+    {
+      gtk_widget_remove_tick_callback (GTK_WIDGET (self), self->tick_id);
+      self->tick_id = 0;
+    }
   g_clear_object (&self->doc);
   g_clear_pointer (&self->fast, pl_results_unref);
   g_clear_pointer (&self->full, pl_results_unref);
@@ -727,7 +1004,29 @@ pl_results_panel_finalize (GObject *object)
 
   g_hash_table_unref (self->plotted);
   g_free (self->chooser_signature);
+  for (guint i = 0; i < PL_N_RESULTS_TABLES; i++)
+    g_free (self->row_signature[i]);
   G_OBJECT_CLASS (pl_results_panel_parent_class)->finalize (object);
+}
+
+static void
+pl_results_panel_map (GtkWidget *widget)
+{
+  GTK_WIDGET_CLASS (pl_results_panel_parent_class)->map (widget);
+  pl_results_panel_schedule (PL_RESULTS_PANEL (widget));
+}
+
+static void
+pl_results_panel_unmap (GtkWidget *widget)
+{
+  PlResultsPanel *self = PL_RESULTS_PANEL (widget);
+
+  if (self->tick_id != 0)
+    {
+      gtk_widget_remove_tick_callback (widget, self->tick_id);
+      self->tick_id = 0;
+    }
+  GTK_WIDGET_CLASS (pl_results_panel_parent_class)->unmap (widget);
 }
 
 static void
@@ -738,6 +1037,8 @@ pl_results_panel_class_init (PlResultsPanelClass *klass)
 
   object_class->dispose = pl_results_panel_dispose;
   object_class->finalize = pl_results_panel_finalize;
+  widget_class->map = pl_results_panel_map;
+  widget_class->unmap = pl_results_panel_unmap;
   signals[SIGNAL_PART_ACTIVATED] = g_signal_new ("part-activated", G_TYPE_FROM_CLASS (klass),
                                                  G_SIGNAL_RUN_LAST, 0, NULL, NULL, NULL,
                                                  G_TYPE_NONE, 1, G_TYPE_STRING);
@@ -864,7 +1165,10 @@ pl_results_panel_init (PlResultsPanel *self)
 
   gtk_accessible_update_property (GTK_ACCESSIBLE (self), GTK_ACCESSIBLE_PROPERTY_LABEL,
                                   _("Results"), -1);
-  pl_results_panel_refresh (self);
+  g_signal_connect (self->stack, "notify::visible-child", G_CALLBACK (stack_visible_child_cb),
+                    self);
+  pl_results_panel_set_titles (self);
+  pl_results_panel_invalidate (self);
 }
 
 /* --- public --- */
@@ -895,7 +1199,8 @@ pl_results_panel_set_context (PlResultsPanel *self, PlDocument *doc, const PlUni
     self->prefs = *prefs;
   else
     pl_unit_prefs_init (&self->prefs, PL_UNIT_SYSTEM_SI);
-  pl_results_panel_refresh (self);
+  pl_results_panel_set_titles (self);
+  pl_results_panel_invalidate (self);
 }
 
 void
@@ -913,7 +1218,7 @@ pl_results_panel_set_results (PlResultsPanel *self, PlResults *fast, PlResults *
   self->fast = fast;
   self->full = full;
   self->stale = stale;
-  pl_results_panel_refresh (self);
+  pl_results_panel_invalidate (self);
 }
 
 void
@@ -938,7 +1243,10 @@ pl_results_panel_peek_row (PlResultsPanel *self, PlResultsTable table, guint row
 
   if (table >= PL_N_RESULTS_TABLES)
     return NULL;
+  pl_results_panel_flush_page (self, table);
   item = g_list_model_get_item (G_LIST_MODEL (self->stores[table]), row);
+  if (item != NULL)
+    pl_results_panel_update_row (self, item);
   /* The store keeps its own reference: a borrowed pointer stays valid
    * until the next refresh. */
   return item;
@@ -949,6 +1257,7 @@ pl_results_panel_get_n_rows (PlResultsPanel *self, PlResultsTable table)
 {
   g_return_val_if_fail (PL_IS_RESULTS_PANEL (self), 0);
   g_return_val_if_fail (table < PL_N_RESULTS_TABLES, 0);
+  pl_results_panel_flush_page (self, table);
   return g_list_model_get_n_items (G_LIST_MODEL (self->stores[table]));
 }
 
@@ -960,7 +1269,7 @@ pl_results_panel_get_cell (PlResultsPanel *self, PlResultsTable table, guint row
 
   g_return_val_if_fail (PL_IS_RESULTS_PANEL (self), NULL);
   r = pl_results_panel_peek_row (self, table, row);
-  if (r == NULL || column >= g_strv_length (r->cells))
+  if (r == NULL || r->cells == NULL || column >= g_strv_length (r->cells))
     return NULL;
   return r->cells[column];
 }
@@ -987,6 +1296,7 @@ PlPlot *
 pl_results_panel_get_plot (PlResultsPanel *self, gboolean shutdown)
 {
   g_return_val_if_fail (PL_IS_RESULTS_PANEL (self), NULL);
+  pl_results_panel_flush_page (self, PAGE_PLOT);
   return PL_PLOT (self->plots[shutdown ? 1 : 0]);
 }
 
@@ -1000,7 +1310,17 @@ pl_results_panel_set_plotted (PlResultsPanel *self, const char *const *ports)
   for (guint i = 0; ports != NULL && ports[i] != NULL; i++)
     g_hash_table_add (self->plotted, g_strdup (ports[i]));
   g_clear_pointer (&self->chooser_signature, g_free);
-  pl_results_panel_refresh (self);
+  /* A choice made by hand (or by the caller) shows at once. */
+  self->dirty[PAGE_PLOT] = TRUE;
+  pl_results_panel_flush_page (self, PAGE_PLOT);
+}
+
+guint
+pl_results_panel_get_n_rebuilds (PlResultsPanel *self, PlResultsTable table)
+{
+  g_return_val_if_fail (PL_IS_RESULTS_PANEL (self), 0);
+  g_return_val_if_fail (table < PL_N_RESULTS_TABLES, 0);
+  return self->n_rebuilds[table];
 }
 
 gboolean

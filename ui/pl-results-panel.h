@@ -10,6 +10,13 @@
  * snapshot the numbers come from, so an edit never shows new parts beside
  * old figures; stale snapshots are shown dimmed under "Results out of date".
  *
+ * Updates are incremental: a new snapshot changes the cells of the rows on
+ * screen in place (the rows stay) and new rows are made only when the set
+ * of parts and ports changes; only the visible page follows, once a frame
+ * however many snapshots arrive; a hidden page catches up when shown.  The
+ * getters below bring their page up to date first, so they always answer
+ * for the latest snapshot.
+ *
  * Signal "part-activated" (PlResultsPanel *, const char *part_id, gpointer):
  * a finding or a table row was activated (click, Enter).
  */
@@ -64,5 +71,8 @@ PlPlot *pl_results_panel_get_plot (PlResultsPanel *self, gboolean shutdown);
  * NULL: the default, every gauge and applicator). */
 void pl_results_panel_set_plotted (PlResultsPanel *self, const char *const *ports);
 gboolean pl_results_panel_get_stale (PlResultsPanel *self);
+/* How many times a table's rows were replaced as a whole (a new row set,
+ * or for the findings a changed list). */
+guint pl_results_panel_get_n_rebuilds (PlResultsPanel *self, PlResultsTable table);
 
 G_END_DECLS

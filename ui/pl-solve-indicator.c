@@ -15,6 +15,8 @@ struct _PlSolveIndicator
   GtkWidget *spinner;
   GtkWidget *label;
   PlSolveState state;
+  char *reason;     /* what was last shown, to skip repeating it */
+  gboolean shown;
 };
 
 G_DEFINE_FINAL_TYPE (PlSolveIndicator, pl_solve_indicator, GTK_TYPE_WIDGET)
@@ -25,6 +27,7 @@ pl_solve_indicator_dispose (GObject *object)
   PlSolveIndicator *self = PL_SOLVE_INDICATOR (object);
 
   g_clear_pointer (&self->box, gtk_widget_unparent);
+  g_clear_pointer (&self->reason, g_free);
   G_OBJECT_CLASS (pl_solve_indicator_parent_class)->dispose (object);
 }
 
@@ -74,6 +77,14 @@ pl_solve_indicator_set_state (PlSolveIndicator *self,
 
   g_return_if_fail (PL_IS_SOLVE_INDICATOR (self));
   g_return_if_fail (state <= PL_SOLVE_STATE_ERROR);
+
+  /* Told on every edit: the same state again changes nothing, and a new
+   * tooltip would cost a round trip to the display. */
+  if (self->shown && state == self->state && g_strcmp0 (reason, self->reason) == 0)
+    return;
+  self->shown = TRUE;
+  g_free (self->reason);
+  self->reason = g_strdup (reason);
 
   switch (state)
     {

@@ -263,6 +263,33 @@ pl_window_add_canvas_shortcuts (PlWindow *self)
   gtk_widget_add_controller (GTK_WIDGET (self->canvas), controller);
 }
 
+/* Sets a tooltip only when it changes: each new one asks the display where
+ * the pointer is. */
+static void
+pl_window_set_tooltip (GtkWidget *widget, const char *text)
+{
+  if (g_strcmp0 (gtk_widget_get_tooltip_text (widget), text) != 0)
+    gtk_widget_set_tooltip_text (widget, text);
+}
+
+/* The undo and redo buttons name the step they take back or again. */
+static void
+pl_window_update_undo_tooltips (PlWindow *self)
+{
+  const char *undo = pl_undo_stack_get_undo_label (self->undo);
+  const char *redo = pl_undo_stack_get_redo_label (self->undo);
+  /* Translators: a button's tooltip naming the step, "Undo Set Bore (Ctrl+Z)". */
+  g_autofree char *undo_tip = undo != NULL ? g_strdup_printf (_("Undo %s (Ctrl+Z)"), undo)
+                                           : g_strdup (_("Undo (Ctrl+Z)"));
+  /* Translators: a button's tooltip naming the step, "Redo Move (Shift+Ctrl+Z)". */
+  g_autofree char *redo_tip = redo != NULL
+                              ? g_strdup_printf (_("Redo %s (Shift+Ctrl+Z)"), redo)
+                              : g_strdup (_("Redo (Shift+Ctrl+Z)"));
+
+  pl_window_set_tooltip (self->undo_button, undo_tip);
+  pl_window_set_tooltip (self->redo_button, redo_tip);
+}
+
 void
 pl_window_update_actions (PlWindow *self)
 {
@@ -281,4 +308,5 @@ pl_window_update_actions (PlWindow *self)
   gtk_widget_action_set_enabled (widget, "win.rotate", any);
   gtk_widget_action_set_enabled (widget, "win.flip", any);
   gtk_widget_action_set_enabled (widget, "win.paste", pl_canvas_can_paste (self->canvas));
+  pl_window_update_undo_tooltips (self);
 }

@@ -36,6 +36,8 @@ struct _PlWindow
   GtkRevealer *toast_revealer;
   GtkLabel *toast_label;
   GMenu *recent_section;
+  GtkWidget *undo_button;
+  GtkWidget *redo_button;
 
   /* the document and what watches it */
   PlDocument *doc;
@@ -43,12 +45,12 @@ struct _PlWindow
   PlSolveScheduler *scheduler;
   GFile *file;
   gulong fast_id, full_id, busy_id, clean_id, can_undo_id, can_redo_id;
+  gulong undo_label_id, redo_label_id;
 
   PlUnitPrefs units;
   GSettings *settings;      /* borrowed from the application */
   gulong units_changed_id, recent_changed_id;
   guint toast_id;
-  guint panel_idle_id;
   /* What the results panel was last given (references). */
   PlResults *panel_fast;
   PlResults *panel_full;

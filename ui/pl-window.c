@@ -109,24 +109,6 @@ pl_window_same_solution (PlResults *a, PlResults *b)
          && pl_results_get_transient_state (a) == pl_results_get_transient_state (b);
 }
 
-static gboolean
-pl_window_panel_idle_cb (gpointer user_data)
-{
-  PlWindow *self = PL_WINDOW (user_data);
-  PlResults *fast = NULL, *full = NULL;
-  gboolean stale = FALSE;
-
-  self->panel_idle_id = 0;
-  if (self->scheduler != NULL)
-    {
-      fast = pl_solve_scheduler_get_fast_results (self->scheduler);
-      full = pl_solve_scheduler_get_full_results (self->scheduler);
-      pl_canvas_get_shown_results (self->canvas, &stale);
-    }
-  pl_results_panel_set_results (self->results_panel, fast, full, stale);
-  return G_SOURCE_REMOVE;
-}
-
 static void
 pl_window_push_results (PlWindow *self)
 {
@@ -140,9 +122,8 @@ pl_window_push_results (PlWindow *self)
   pl_inspector_set_results (self->inspector, shown, stale);
   pl_window_update_indicator (self);
 
-  /* The results tables are rebuilt on every update, which takes far longer
-   * than a frame for a large layout: they follow after the frame is drawn
-   * (one update per burst of edits), and not at all for a snapshot that
+  /* The results panel updates itself once a frame, only its visible page
+   * and only the rows on screen; it is not told at all of a snapshot that
    * only changed its revision (a move re-tags the same solution). */
   if (pl_window_same_solution (self->panel_fast, fast)
       && pl_window_same_solution (self->panel_full, full) && self->panel_stale == stale)
@@ -154,8 +135,7 @@ pl_window_push_results (PlWindow *self)
   self->panel_fast = fast != NULL ? pl_results_ref (fast) : NULL;
   self->panel_full = full != NULL ? pl_results_ref (full) : NULL;
   self->panel_stale = stale;
-  if (self->panel_idle_id == 0)
-    self->panel_idle_id = g_idle_add (pl_window_panel_idle_cb, self);
+  pl_results_panel_set_results (self->results_panel, fast, full, stale);
 }
 
 static void
@@ -324,6 +304,8 @@ pl_window_drop_document (PlWindow *self)
       g_clear_signal_handler (&self->clean_id, self->undo);
       g_clear_signal_handler (&self->can_undo_id, self->undo);
       g_clear_signal_handler (&self->can_redo_id, self->undo);
+      g_clear_signal_handler (&self->undo_label_id, self->undo);
+      g_clear_signal_handler (&self->redo_label_id, self->undo);
     }
   g_clear_object (&self->scheduler);
   g_clear_object (&self->undo);
@@ -336,7 +318,6 @@ pl_window_dispose (GObject *object)
   PlWindow *self = PL_WINDOW (object);
 
   g_clear_handle_id (&self->toast_id, g_source_remove);
-  g_clear_handle_id (&self->panel_idle_id, g_source_remove);
   g_clear_pointer (&self->panel_fast, pl_results_unref);
   g_clear_pointer (&self->panel_full, pl_results_unref);
   if (self->settings != NULL)
@@ -394,6 +375,8 @@ pl_window_class_init (PlWindowClass *klass)
   gtk_widget_class_bind_template_child (widget_class, PlWindow, toast_revealer);
   gtk_widget_class_bind_template_child (widget_class, PlWindow, toast_label);
   gtk_widget_class_bind_template_child (widget_class, PlWindow, recent_section);
+  gtk_widget_class_bind_template_child (widget_class, PlWindow, undo_button);
+  gtk_widget_class_bind_template_child (widget_class, PlWindow, redo_button);
 
   pl_window_class_install_actions (widget_class);
 }
@@ -446,6 +429,10 @@ pl_window_set_document (PlWindow   *self,
                                         G_CALLBACK (pl_window_undo_notify_cb), self);
   self->can_redo_id = g_signal_connect (self->undo, "notify::can-redo",
                                         G_CALLBACK (pl_window_undo_notify_cb), self);
+  self->undo_label_id = g_signal_connect (self->undo, "notify::undo-label",
+                                          G_CALLBACK (pl_window_undo_notify_cb), self);
+  self->redo_label_id = g_signal_connect (self->undo, "notify::redo-label",
+                                          G_CALLBACK (pl_window_undo_notify_cb), self);
 
   /* The canvas and the panels connect to "changed" before the scheduler,
    * but the scheduler's "fast-results" arrives within the same emission:

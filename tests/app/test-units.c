@@ -132,6 +132,10 @@ static const FactorCase factor_cases[] = {
   /* cm3 / (ft ksi) from the B.8 foot and ksi entries above; the ksi value
    * is rounded to 7 digits, so 1e-7 relative. */
   { PL_UNIT_CC_PER_FT_KSI, 1e-6 / (3.048e-1 * 6.894757e6), 1e-7 * 4.76e-13 },
+  /* Power-law consistency: the pascal second's factors (SI prefixes, exact)
+   * with the flow index as exponent of the second. */
+  { PL_UNIT_PA_S_N, 1.0, EXACT (1.0) },
+  { PL_UNIT_MPA_S_N, 1e-3, EXACT (1e-3) },
 };
 
 START_TEST (test_factor_nist)
@@ -142,6 +146,29 @@ START_TEST (test_factor_nist)
   ck_assert_ptr_nonnull (u);
   ck_assert_msg (fabs (u->factor - c->si_per_unit) <= c->tol,
                  "%s: factor %.17g, reference %.17g", u->key, u->factor, c->si_per_unit);
+}
+END_TEST
+
+/* K shows as Pa·sⁿ, accepts what people type for it and, as the n = 1
+ * case, a viscosity unit (files written before it had units of its own say
+ * "Pa.s"). */
+START_TEST (test_consistency_units)
+{
+  PlUnitPrefs si;
+  double v = 0.0;
+  g_autofree char *shown = NULL;
+  g_autoptr (GError) error = NULL;
+
+  pl_unit_prefs_init (&si, PL_UNIT_SYSTEM_SI);
+  shown = pl_unit_format (2.0, PL_QUANTITY_CONSISTENCY, &si, 4, '.');
+  ck_assert_str_eq (shown, "2000 mPa·sⁿ");
+  ck_assert_uint_eq (pl_unit_lookup ("Pa.s^n", PL_QUANTITY_CONSISTENCY), PL_UNIT_PA_S_N);
+  ck_assert_uint_eq (pl_unit_lookup ("mPa·sⁿ", PL_QUANTITY_CONSISTENCY), PL_UNIT_MPA_S_N);
+  ck_assert_uint_eq (pl_unit_lookup ("Pa.s", PL_QUANTITY_CONSISTENCY), PL_UNIT_PA_S);
+  ck_assert_uint_eq (pl_unit_lookup ("Pa.s^n", PL_QUANTITY_VISCOSITY), PL_UNIT_NONE);
+  ck_assert_msg (pl_unit_parse ("3 Pa·s^n", PL_QUANTITY_CONSISTENCY, &si, '.', &v, &error), "%s",
+                 error ? error->message : "");
+  ck_assert_double_eq (v, 3.0);
 }
 END_TEST
 
@@ -1090,6 +1117,7 @@ units_suite (void)
 
   tcase_add_loop_test (tc_factors, test_factor_nist, 0, G_N_ELEMENTS (factor_cases));
   tcase_add_test (tc_factors, test_factor_table_complete);
+  tcase_add_test (tc_factors, test_consistency_units);
   tcase_add_test (tc_factors, test_factor_exact);
   tcase_add_loop_test (tc_factors, test_temperature, 0, G_N_ELEMENTS (temperature_cases));
   tcase_add_loop_test (tc_factors, test_round_trip, PL_UNIT_NONE + 1, PL_N_UNITS);

@@ -25,7 +25,7 @@
 #include <stdio.h>
 #include <stdlib.h>
 
-#include "pl-command.h"
+#include "bench-layout.h"
 #include "pl-compile.h"
 #include "pl-document.h"
 #include "pl-geometry.h"
@@ -34,58 +34,8 @@
 #include "pl-results.h"
 #include "pl-viewport.h"
 
-#define N_LINES 50
 #define WIDTH 1600
 #define HEIGHT 1000
-
-static gboolean
-apply (PlDocument *doc, PlCommand *cmd, char **created)
-{
-  g_autoptr (GError) error = NULL;
-  gboolean ok = pl_command_apply (cmd, doc, &error);
-
-  if (!ok)
-    fprintf (stderr, "bench-render: %s\n", error->message);
-  else if (created != NULL)
-    *created = g_strdup (pl_command_get_created_id (cmd));
-  pl_command_unref (cmd);
-  return ok;
-}
-
-static gboolean
-add (PlDocument *doc, const char *type, double x, double y, guint rot, char **id)
-{
-  return apply (doc, pl_command_new_add_part_full (type, NULL, NULL, x, y, rot, FALSE), id);
-}
-
-static gboolean
-wire (PlDocument *doc, const char *a, const char *pa, const char *b, const char *pb)
-{
-  return apply (doc, pl_command_new_add_wire (NULL, a, pa, b, pb, NULL, 0), NULL);
-}
-
-/* One line of ten parts at height y:
- * pump - hose - tee - hose - tee - pipe - applicator, an applicator
- * under each tee, a gauge on the first tee. */
-static gboolean
-add_line (PlDocument *doc, double y)
-{
-  g_autofree char *p = NULL, *h1 = NULL, *t1 = NULL, *h2 = NULL, *t2 = NULL, *r = NULL;
-  g_autofree char *n1 = NULL, *n2 = NULL, *n3 = NULL, *g = NULL;
-
-  return add (doc, "pump", 0, y, 0, &p) && add (doc, "hose", 70, y, 0, &h1)
-         && add (doc, "tee", 140, y, 0, &t1) && add (doc, "hose", 210, y, 0, &h2)
-         && add (doc, "tee", 280, y, 0, &t2) && add (doc, "pipe", 350, y, 0, &r)
-         && add (doc, "applicator", 420, y + 30, 0, &n3)
-         && add (doc, "applicator", 140, y + 50, 0, &n1)
-         && add (doc, "applicator", 280, y + 50, 0, &n2)
-         && add (doc, "gauge", 110, y - 30, 0, &g)
-         && wire (doc, p, "out", h1, "a") && wire (doc, h1, "b", t1, "a")
-         && wire (doc, t1, "branch", n1, "in") && wire (doc, t1, "b", h2, "a")
-         && wire (doc, h2, "b", t2, "a") && wire (doc, t2, "branch", n2, "in")
-         && wire (doc, t2, "b", r, "a") && wire (doc, r, "b", n3, "in")
-         && wire (doc, g, "p", t1, "a");
-}
 
 static void
 run_case_with (const char *label, PlDocument *doc, PlResults *results, double zoom, int n,
@@ -190,7 +140,7 @@ solve_full (PlDocument *doc, const char *what)
 int
 main (int argc, char **argv)
 {
-  g_autoptr (PlDocument) doc = pl_document_new ();
+  g_autoptr (PlDocument) doc = bench_layout_new ();
   g_autoptr (PlCompiled) compiled = NULL;
   g_autoptr (PlResults) results = NULL;
   int n = argc > 1 ? atoi (argv[1]) : 50;
@@ -198,9 +148,8 @@ main (int argc, char **argv)
 
   if (n < 1)
     n = 1;
-  for (int i = 0; i < N_LINES; i++)
-    if (!add_line (doc, 110.0 * i))
-      return EXIT_FAILURE;
+  if (doc == NULL)
+    return EXIT_FAILURE;
   printf ("layout: %u parts, %u wires; %d redraws per case, %dx%d px\n",
           pl_document_get_n_parts (doc), pl_document_get_n_wires (doc), n, WIDTH, HEIGHT);
   t0 = g_get_monotonic_time ();

@@ -34,6 +34,10 @@ static PlApplication *app;
 static void
 app_setup (void)
 {
+  /* One application for every test case: a second one could not register
+   * its name on the bus while the first is alive. */
+  if (app != NULL)
+    return;
   /* Frame statistics of the canvas (read when a canvas is made). */
   g_setenv ("PRESSLINE_FRAME_STATS", "1", TRUE);
   app = pl_ui_test_app_new ();
@@ -54,22 +58,6 @@ source_path (const char *relative)
   return g_build_filename (root, relative, NULL);
 }
 
-/* Iterates the main loop until nothing is pending, then for ms more, so
- * that a frame (layout, snapshot) has had its turn. */
-static void
-spin (guint ms)
-{
-  gint64 end = g_get_monotonic_time () + (gint64) ms * 1000;
-
-  while (g_main_context_pending (NULL))
-    g_main_context_iteration (NULL, FALSE);
-  while (g_get_monotonic_time () < end)
-    {
-      g_main_context_iteration (NULL, FALSE);
-      g_usleep (1000);
-    }
-}
-
 static PlWindow *
 open_window (const char *sample)
 {
@@ -78,8 +66,13 @@ open_window (const char *sample)
 
   gtk_window_set_default_size (GTK_WINDOW (window), 1400, 900);
   gtk_window_present (GTK_WINDOW (window));
-  for (int i = 0; i < 500 && !gtk_widget_get_mapped (GTK_WIDGET (window)); i++)
-    g_main_context_iteration (NULL, TRUE);
+  /* Mapped, then laid out: on a loaded machine the canvas's first
+   * allocation (which fits the view) can come well after the map, and a
+   * pointer aimed before it would miss. */
+  for (int i = 0; i < 2000 && (!gtk_widget_get_mapped (GTK_WIDGET (window))
+                               || gtk_widget_get_width (pl_window_get_canvas (window)) == 0);
+       i++)
+    pl_ui_test_spin (5);
   if (sample != NULL)
     {
       g_autofree char *path = source_path (sample);
@@ -87,7 +80,7 @@ open_window (const char *sample)
       ck_assert_msg (pl_window_load_file (window, file, &error), "%s: %s", sample,
                      error ? error->message : "");
     }
-  spin (60);
+  pl_ui_test_spin (60);
   return window;
 }
 
@@ -98,7 +91,7 @@ close_window (PlWindow *window)
    * so close does not ask. */
   pl_undo_stack_mark_clean (pl_window_get_undo_stack (window));
   gtk_window_destroy (GTK_WINDOW (window));
-  spin (10);
+  pl_ui_test_spin (10);
 }
 
 static PlCanvas *
@@ -153,28 +146,7 @@ activate (PlWindow *window, const char *action)
 {
   ck_assert_msg (gtk_widget_activate_action (GTK_WIDGET (window), action, NULL),
                  "no action %s", action);
-  spin (5);
-}
-
-/* Waits (up to 30 s: the cycle of a sample takes well under a second on
- * one core, the margin is for sanitizer builds) until the worker is done. */
-static void
-wait_for_full (PlWindow *window)
-{
-  PlSolveScheduler *sched = pl_window_get_scheduler (window);
-  gint64 end = g_get_monotonic_time () + 30 * G_USEC_PER_SEC;
-
-  while (g_get_monotonic_time () < end)
-    {
-      PlResults *full = pl_solve_scheduler_get_full_results (sched);
-      if (!pl_solve_scheduler_get_busy (sched) && full != NULL
-          && pl_results_get_revision (full)
-               == pl_document_get_revision (pl_window_get_document (window)))
-        return;
-      g_main_context_iteration (NULL, FALSE);
-      g_usleep (2000);
-    }
-  ck_abort_msg ("no full results within 30 s");
+  pl_ui_test_spin (5);
 }
 
 /* --- samples --- */
@@ -211,8 +183,8 @@ START_TEST (test_open_sample)
       ck_assert_msg (s.x >= 0 && s.x <= vp->width && s.y >= 0 && s.y <= vp->height,
                      "%s off screen", pl_part_get_tag (part));
     }
-  wait_for_full (window);
-  spin (20);
+  pl_ui_test_wait_for_full (window);
+  pl_ui_test_spin (20);
   state = pl_solve_indicator_get_state (indicator);
   ck_assert_msg (state == PL_SOLVE_STATE_FRESH || state == PL_SOLVE_STATE_ERROR,
                  "indicator says %s", pl_solve_indicator_get_text (indicator));
@@ -250,7 +222,7 @@ START_TEST (test_shelf_wire_bore_undo)
   world_to_screen (window, where, &s);
   pl_canvas_pointer_press (canvas, s.x, s.y, 0);
   pl_canvas_pointer_release (canvas, s.x, s.y);
-  spin (5);
+  pl_ui_test_spin (5);
   ck_assert_uint_eq (pl_document_get_n_parts (doc), n_parts + 1);
   ck_assert_ptr_null (pl_canvas_get_armed_type (canvas));
   ck_assert_ptr_null (pl_shelf_get_armed (shelf));
@@ -272,7 +244,7 @@ START_TEST (test_shelf_wire_bore_undo)
   pl_canvas_pointer_motion (canvas, (from.x + to.x) / 2, (from.y + to.y) / 2);
   pl_canvas_pointer_motion (canvas, to.x, to.y);
   pl_canvas_pointer_release (canvas, to.x, to.y);
-  spin (5);
+  pl_ui_test_spin (5);
   ck_assert_uint_eq (pl_document_get_n_wires (doc), n_wires + 1);
   /* The gauge reads the applicator's pressure now. */
   gauge_p = port_pressure (window, gauge, "p", PL_PRESSURE_STEADY_OPEN);
@@ -293,7 +265,7 @@ START_TEST (test_shelf_wire_bore_undo)
           "%.3f ms\n", (t1 - t0) / 1000.0);
   after = port_pressure (window, far, "in", PL_PRESSURE_STEADY_OPEN);
   ck_assert_msg (after > before + 1000.0, "far applicator: %g Pa -> %g Pa", before, after);
-  spin (50);
+  pl_ui_test_spin (50);
   ck_assert_uint_gt (pl_canvas_get_n_draws (canvas), draws);
 
   /* Undo gives back the previous result exactly (the same solve of the
@@ -333,11 +305,67 @@ START_TEST (test_wire_refused)
   pl_canvas_pointer_press (canvas, from.x, from.y, 0);
   pl_canvas_pointer_motion (canvas, to.x, to.y);
   pl_canvas_pointer_release (canvas, to.x, to.y);
-  spin (5);
+  pl_ui_test_spin (5);
   ck_assert_uint_eq (pl_document_get_n_wires (doc), n_wires);
   ck_assert_msg (strstr (pl_window_get_toast (window), "two different parts") != NULL,
                  "toast: %s", pl_window_get_toast (window));
   ck_assert (!pl_window_get_dirty (window));
+  close_window (window);
+}
+END_TEST
+
+/* The button under widget that runs action, or NULL. */
+static GtkWidget *
+button_for_action (GtkWidget *widget, const char *action)
+{
+  if (GTK_IS_BUTTON (widget)
+      && g_strcmp0 (gtk_actionable_get_action_name (GTK_ACTIONABLE (widget)), action) == 0)
+    return widget;
+  for (GtkWidget *c = gtk_widget_get_first_child (widget); c != NULL;
+       c = gtk_widget_get_next_sibling (c))
+    {
+      GtkWidget *found = button_for_action (c, action);
+
+      if (found != NULL)
+        return found;
+    }
+  return NULL;
+}
+
+/* Undo and redo name the step in their tooltips, and follow each change. */
+START_TEST (test_undo_tooltips_name_the_step)
+{
+  PlWindow *window = open_window ("samples/demo-glue-line.pline");
+  PlUndoStack *undo = pl_window_get_undo_stack (window);
+  PlDocument *doc = pl_window_get_document (window);
+  GtkWidget *undo_button = button_for_action (GTK_WIDGET (window), "win.undo");
+  GtkWidget *redo_button = button_for_action (GTK_WIDGET (window), "win.redo");
+  const char *hose = id_of_tag (window, "H1");
+  g_autoptr (PlCommand) bore = pl_command_new_set_number (
+    hose, "bore", pl_part_get_number (pl_document_find_part (doc, hose), "bore") * 1.2);
+  g_autoptr (PlCommand) move = pl_command_new_move (
+    (const char *const[]) { hose, NULL }, 1, 5.0, 0.0);
+  g_autofree char *bore_label = NULL;
+  g_autofree char *tip = NULL;
+
+  ck_assert_ptr_nonnull (undo_button);
+  ck_assert_ptr_nonnull (redo_button);
+  ck_assert_str_eq (gtk_widget_get_tooltip_text (undo_button), "Undo (Ctrl+Z)");
+  ck_assert (pl_undo_stack_push (undo, bore, NULL));
+  bore_label = g_strdup (pl_undo_stack_get_undo_label (undo));
+  tip = g_strdup_printf ("Undo %s (Ctrl+Z)", bore_label);
+  ck_assert_str_eq (gtk_widget_get_tooltip_text (undo_button), tip);
+  ck_assert (pl_undo_stack_push (undo, move, NULL));
+  g_free (tip);
+  tip = g_strdup_printf ("Undo %s (Ctrl+Z)", pl_command_get_label (move));
+  ck_assert_str_eq (gtk_widget_get_tooltip_text (undo_button), tip);
+  activate (window, "win.undo");
+  g_free (tip);
+  tip = g_strdup_printf ("Redo %s (Shift+Ctrl+Z)", pl_command_get_label (move));
+  ck_assert_str_eq (gtk_widget_get_tooltip_text (redo_button), tip);
+  g_free (tip);
+  tip = g_strdup_printf ("Undo %s (Ctrl+Z)", bore_label);
+  ck_assert_str_eq (gtk_widget_get_tooltip_text (undo_button), tip);
   close_window (window);
 }
 END_TEST
@@ -366,7 +394,7 @@ START_TEST (test_bad_file_keeps_document)
   g_autoptr (GRegex) line_re = g_regex_new (":[0-9]+(:[0-9]+)?: ", 0, 0, NULL);
 
   pl_window_open_file (window, file);
-  spin (20);
+  pl_ui_test_spin (20);
   toplevels = gtk_window_get_toplevels ();
   g_object_ref (toplevels);
   for (guint i = 0; i < g_list_model_get_n_items (toplevels); i++)
@@ -388,6 +416,151 @@ START_TEST (test_bad_file_keeps_document)
   ck_assert (g_file_equal (pl_window_get_file (window), old_file));
   ck_assert_str_eq (gtk_window_get_title (GTK_WINDOW (window)), title);
   close_window (window);
+}
+END_TEST
+
+/* --- the unsaved-changes prompt and the file chooser --- */
+
+/* The newest toplevel of type that is transient for window, or NULL. */
+static GtkWindow *
+dialog_of (PlWindow *window, GType type)
+{
+  g_autoptr (GListModel) toplevels = g_object_ref (gtk_window_get_toplevels ());
+  GtkWindow *found = NULL;
+
+  for (guint i = 0; i < g_list_model_get_n_items (toplevels); i++)
+    {
+      g_autoptr (GObject) w = g_list_model_get_item (toplevels, i);
+
+      if (G_TYPE_CHECK_INSTANCE_TYPE (w, type)
+          && gtk_window_get_transient_for (GTK_WINDOW (w)) == GTK_WINDOW (window))
+        found = GTK_WINDOW (w);
+    }
+  return found;
+}
+
+static void
+make_dirty (PlWindow *window)
+{
+  g_autoptr (PlCommand) cmd = pl_command_new_set_number (id_of_tag (window, "H1"), "length",
+                                                         31.0);
+
+  ck_assert (pl_undo_stack_push (pl_window_get_undo_stack (window), cmd, NULL));
+  ck_assert (pl_window_get_dirty (window));
+}
+
+/* "New" on a changed layout asks first; Cancel keeps everything, Discard
+ * starts afresh, Save writes the file and then starts afresh. */
+START_TEST (test_new_asks_before_discarding)
+{
+  g_autoptr (GError) error = NULL;
+  g_autofree char *dir = g_dir_make_tmp ("pressline-prompt-XXXXXX", &error);
+  g_autofree char *src = source_path ("samples/demo-glue-line.pline");
+  g_autofree char *path = g_build_filename (dir, "prompt.pline", NULL);
+  g_autofree char *data = NULL;
+  g_autoptr (GFile) file = g_file_new_for_path (path);
+  g_autoptr (PlDocument) saved = NULL;
+  PlWindow *window = open_window (NULL);
+  PlDocument *doc;
+  GtkWindow *prompt;
+  gsize len;
+  char *text = NULL;
+  double length;
+
+  /* A copy of a sample, so that Save has a file of its own to write. */
+  ck_assert (g_file_get_contents (src, &data, &len, NULL));
+  ck_assert (g_file_set_contents (path, data, (gssize) len, NULL));
+  ck_assert (pl_window_load_file (window, file, &error));
+  doc = pl_window_get_document (window);
+  length = pl_part_get_number (pl_document_find_part_by_tag (doc, "H1"), "length");
+  ck_assert_double_ne (length, 31.0);
+  make_dirty (window);
+
+  /* Cancel. */
+  activate (window, "win.new");
+  prompt = dialog_of (window, GTK_TYPE_MESSAGE_DIALOG);
+  ck_assert_msg (prompt != NULL, "no prompt before discarding changes");
+  g_object_get (prompt, "text", &text, NULL);
+  ck_assert_msg (strstr (text, "prompt.pline") != NULL, "%s", text);
+  g_free (text);
+  gtk_dialog_response (GTK_DIALOG (prompt), GTK_RESPONSE_CANCEL);
+  pl_ui_test_spin (10);
+  ck_assert_ptr_null (dialog_of (window, GTK_TYPE_MESSAGE_DIALOG));
+  ck_assert_ptr_eq (pl_window_get_document (window), doc);
+  ck_assert (pl_window_get_dirty (window));
+
+  /* Discard. */
+  activate (window, "win.new");
+  prompt = dialog_of (window, GTK_TYPE_MESSAGE_DIALOG);
+  ck_assert_ptr_nonnull (prompt);
+  gtk_dialog_response (GTK_DIALOG (prompt), GTK_RESPONSE_REJECT);
+  pl_ui_test_spin (10);
+  ck_assert_ptr_ne (pl_window_get_document (window), doc);
+  ck_assert_uint_eq (pl_document_get_n_parts (pl_window_get_document (window)), 0);
+  ck_assert (!pl_window_get_dirty (window));
+  ck_assert_ptr_null (pl_window_get_file (window));
+  ck_assert_str_eq (gtk_window_get_title (GTK_WINDOW (window)), "Untitled layout — Pressline");
+  /* The file on disk kept what it had. */
+  saved = pl_layout_read_file (path, &error);
+  ck_assert_msg (saved != NULL, "%s", error ? error->message : "");
+  ck_assert_double_eq (pl_part_get_number (pl_document_find_part_by_tag (saved, "H1"),
+                                           "length"), length);
+  g_clear_object (&saved);
+
+  /* Save first. */
+  ck_assert (pl_window_load_file (window, file, &error));
+  make_dirty (window);
+  activate (window, "win.new");
+  prompt = dialog_of (window, GTK_TYPE_MESSAGE_DIALOG);
+  ck_assert_ptr_nonnull (prompt);
+  gtk_dialog_response (GTK_DIALOG (prompt), GTK_RESPONSE_ACCEPT);
+  pl_ui_test_spin (10);
+  ck_assert_uint_eq (pl_document_get_n_parts (pl_window_get_document (window)), 0);
+  saved = pl_layout_read_file (path, &error);
+  ck_assert_msg (saved != NULL, "%s", error ? error->message : "");
+  ck_assert_double_eq (pl_part_get_number (pl_document_find_part_by_tag (saved, "H1"),
+                                           "length"), 31.0);
+  close_window (window);
+  g_remove (path);
+  g_rmdir (dir);
+}
+END_TEST
+
+/* Save As through the window's own chooser: a name without the suffix
+ * gets it, the file is written, the title and the clean mark follow. */
+START_TEST (test_save_as_through_the_chooser)
+{
+  g_autoptr (GError) error = NULL;
+  g_autofree char *dir = g_dir_make_tmp ("pressline-chooser-XXXXXX", &error);
+  g_autofree char *path = g_build_filename (dir, "chosen.pline", NULL);
+  g_autoptr (GFile) folder = g_file_new_for_path (dir);
+  g_autoptr (PlDocument) back = NULL;
+  PlWindow *window = open_window ("samples/demo-glue-line.pline");
+  GtkWindow *chooser;
+
+  make_dirty (window);
+  activate (window, "win.save-as");
+  pl_ui_test_spin (50);
+  /* No portal under the test session: GTK's own chooser dialog stands in
+   * for the native one. */
+  chooser = dialog_of (window, GTK_TYPE_FILE_CHOOSER_DIALOG);
+  ck_assert_msg (chooser != NULL, "no file chooser for Save As");
+  ck_assert (gtk_file_chooser_set_current_folder (GTK_FILE_CHOOSER (chooser), folder, NULL));
+  gtk_file_chooser_set_current_name (GTK_FILE_CHOOSER (chooser), "chosen");
+  gtk_dialog_response (GTK_DIALOG (chooser), GTK_RESPONSE_ACCEPT);
+  /* The chooser hands on its answer from the main loop, and the window
+   * waits for a clean title: up to 5 s. */
+  for (int i = 0; i < 500 && pl_window_get_dirty (window); i++)
+    pl_ui_test_spin (10);
+  ck_assert_msg (g_file_test (path, G_FILE_TEST_EXISTS), "%s not written", path);
+  back = pl_layout_read_file (path, &error);
+  ck_assert_msg (back != NULL, "%s", error ? error->message : "");
+  ck_assert (pl_document_equal (back, pl_window_get_document (window)));
+  ck_assert (!pl_window_get_dirty (window));
+  ck_assert_str_eq (gtk_window_get_title (GTK_WINDOW (window)), "chosen.pline — Pressline");
+  close_window (window);
+  g_remove (path);
+  g_rmdir (dir);
 }
 END_TEST
 
@@ -520,7 +693,7 @@ START_TEST (test_drag_moves_snapped_one_step)
     {
       pl_canvas_pointer_motion (canvas, s.x + 43.0 * scale * i / steps,
                                 s.y + 21.0 * scale * i / steps);
-      spin (16);
+      pl_ui_test_spin (16);
     }
   pl_canvas_pointer_release (canvas, s.x + 43.0 * scale, s.y + 21.0 * scale);
   worst = pl_canvas_get_max_frame_interval (canvas, &n_ticks);
@@ -672,6 +845,74 @@ START_TEST (test_zoom_actions_keep_centre)
 }
 END_TEST
 
+/* --- pinch and middle drag --- */
+
+/* The canvas's own controller of a type (for a drag: on button), or NULL. */
+static GtkEventController *
+canvas_controller (PlCanvas *canvas, GType type, guint button)
+{
+  g_autoptr (GListModel) list = gtk_widget_observe_controllers (GTK_WIDGET (canvas));
+
+  for (guint i = 0; i < g_list_model_get_n_items (list); i++)
+    {
+      g_autoptr (GObject) c = g_list_model_get_item (list, i);
+
+      if (G_TYPE_CHECK_INSTANCE_TYPE (c, type)
+          && (button == 0 || gtk_gesture_single_get_button (GTK_GESTURE_SINGLE (c)) == button))
+        return GTK_EVENT_CONTROLLER (c);
+    }
+  return NULL;
+}
+
+/* GTK 4 gives no way to inject touch or button events, so the gestures
+ * the canvas installed are driven through their own signals, as GTK's
+ * event handling would emit them: the handlers and the viewport maths are
+ * the real ones. */
+START_TEST (test_pinch_and_middle_drag)
+{
+  PlWindow *window = open_window ("samples/demo-glue-line.pline");
+  PlCanvas *canvas = canvas_of (window);
+  const PlViewport *vp = pl_canvas_get_viewport (canvas);
+  GtkEventController *zoom = canvas_controller (canvas, GTK_TYPE_GESTURE_ZOOM, 0);
+  GtkEventController *pan = canvas_controller (canvas, GTK_TYPE_GESTURE_DRAG,
+                                               GDK_BUTTON_MIDDLE);
+  PlPoint centre = { vp->width / 2, vp->height / 2 }, w0, w1;
+  double z0 = vp->zoom;
+
+  ck_assert_ptr_nonnull (zoom);
+  ck_assert_ptr_nonnull (pan);
+
+  /* Fingers spread to twice, then three times their distance: the zoom
+   * follows the scale, about the middle (no touch points to centre on). */
+  pl_viewport_screen_to_world (vp, centre, &w0);
+  g_signal_emit_by_name (zoom, "begin", NULL);
+  g_signal_emit_by_name (zoom, "scale-changed", 2.0);
+  ck_assert_double_eq_tol (vp->zoom, 2.0 * z0, 1e-9 * z0);
+  g_signal_emit_by_name (zoom, "scale-changed", 3.0);
+  ck_assert_double_eq_tol (vp->zoom, 3.0 * z0, 1e-9 * z0);
+  pl_viewport_screen_to_world (vp, centre, &w1);
+  ck_assert_double_eq_tol (w1.x, w0.x, 1e-9);
+  ck_assert_double_eq_tol (w1.y, w0.y, 1e-9);
+  /* A new pinch starts from where the last one left the zoom. */
+  g_signal_emit_by_name (zoom, "begin", NULL);
+  g_signal_emit_by_name (zoom, "scale-changed", 0.5);
+  ck_assert_double_eq_tol (vp->zoom, 1.5 * z0, 1e-9 * z0);
+
+  /* Middle drag: the drawing moves with the pointer, the whole offset of
+   * the drag and nothing more, however many updates it came in. */
+  pl_viewport_screen_to_world (vp, (PlPoint) { 300, 200 }, &w0);
+  g_signal_emit_by_name (pan, "drag-begin", 300.0, 200.0);
+  g_signal_emit_by_name (pan, "drag-update", 30.0, -20.0);
+  g_signal_emit_by_name (pan, "drag-update", 50.0, 10.0);
+  g_signal_emit_by_name (pan, "drag-end", 50.0, 10.0);
+  pl_viewport_screen_to_world (vp, (PlPoint) { 350, 210 }, &w1);
+  ck_assert_double_eq_tol (w1.x, w0.x, 1e-9);
+  ck_assert_double_eq_tol (w1.y, w0.y, 1e-9);
+  ck_assert_double_eq_tol (vp->zoom, 1.5 * z0, 1e-9 * z0);
+  close_window (window);
+}
+END_TEST
+
 /* --- large layout: edit to fast results --- */
 
 START_TEST (test_large_layout_edit_figure)
@@ -737,7 +978,7 @@ START_TEST (test_large_layout_edit_figure)
   }
   doc = pl_window_get_document (window);
   undo = pl_window_get_undo_stack (window);
-  spin (30);
+  pl_ui_test_spin (30);
   for (int r = 0; r < reps; r++)
     {
       g_autoptr (PlCommand) cmd = pl_command_new_set_number (first_hose, "bore",
@@ -804,9 +1045,9 @@ START_TEST (test_screenshots)
   const char *ids[] = { id_of_tag (window, "H1"), NULL };
   double light, dark;
 
-  wait_for_full (window);
+  pl_ui_test_wait_for_full (window);
   pl_canvas_select (canvas, ids);
-  spin (100);
+  pl_ui_test_spin (100);
   pl_ui_test_save_shot (GTK_WIDGET (window), "window-light.png");
   {
     g_autoptr (GdkTexture) t = pl_ui_test_render_widget (GTK_WIDGET (canvas));
@@ -817,15 +1058,15 @@ START_TEST (test_screenshots)
     PlPoint s;
     port_on_screen (window, gauge, "p", &s);
     pl_canvas_zoom_at (canvas, 4.0, s.x, s.y);
-    spin (50);
+    pl_ui_test_spin (50);
     pl_ui_test_save_shot (GTK_WIDGET (window), "window-light-zoom.png");
   }
   g_object_set (settings, "gtk-application-prefer-dark-theme", TRUE, NULL);
   ck_assert_int_eq (pl_canvas_get_style (canvas), PL_RENDER_STYLE_DARK);
-  spin (100);
+  pl_ui_test_spin (100);
   pl_ui_test_save_shot (GTK_WIDGET (window), "window-dark-zoom.png");
   activate (window, "win.zoom-fit");
-  spin (100);
+  pl_ui_test_spin (100);
   pl_ui_test_save_shot (GTK_WIDGET (window), "window-dark.png");
   {
     g_autoptr (GdkTexture) t = pl_ui_test_render_widget (GTK_WIDGET (canvas));
@@ -840,34 +1081,80 @@ START_TEST (test_screenshots)
 }
 END_TEST
 
+/* The sheet follows the theme's own colours, not only the dark
+ * preference: run with GTK_THEME=Adwaita:dark (meson runs this case so,
+ * as test-editor-gtk-theme-dark) the canvas must be dark from the start. */
+START_TEST (test_canvas_follows_theme_colours)
+{
+  const char *theme = g_getenv ("GTK_THEME");
+  gboolean dark_theme = theme != NULL && g_str_has_suffix (theme, ":dark");
+  PlWindow *window = open_window ("samples/demo-glue-line.pline");
+  PlCanvas *canvas = canvas_of (window);
+  GdkRGBA fg;
+  double luma;
+
+  pl_ui_test_spin (100);
+  gtk_style_context_get_color (gtk_widget_get_style_context (GTK_WIDGET (canvas)), &fg);
+  if (dark_theme)
+    ck_assert_double_gt (fg.red + fg.green + fg.blue, 1.5);
+  ck_assert_int_eq (pl_canvas_get_style (canvas),
+                    fg.red + fg.green + fg.blue > 1.5 ? PL_RENDER_STYLE_DARK
+                                                      : PL_RENDER_STYLE_LIGHT);
+  {
+    g_autoptr (GdkTexture) t = pl_ui_test_render_widget (GTK_WIDGET (canvas));
+    luma = mean_luma (t);
+  }
+  pl_ui_test_save_shot (GTK_WIDGET (window), dark_theme ? "window-gtk-theme-dark.png"
+                                             : "window-gtk-theme-default.png");
+  printf ("figure: canvas mean luma under GTK_THEME=%s: %.3f\n", theme ? theme : "(unset)",
+          luma);
+  if (dark_theme)
+    ck_assert_double_lt (luma, 0.35);
+  close_window (window);
+}
+END_TEST
+
 static Suite *
 editor_suite (void)
 {
   Suite *s = suite_create ("editor");
   TCase *tc = tcase_create ("editor");
+  TCase *theme = tcase_create ("theme");
 
   tcase_set_timeout (tc, 120);
-  tcase_add_unchecked_fixture (tc, app_setup, app_teardown);
+  tcase_add_unchecked_fixture (tc, app_setup, NULL);
   tcase_add_loop_test (tc, test_open_sample, 0, G_N_ELEMENTS (samples));
   tcase_add_test (tc, test_shelf_wire_bore_undo);
   tcase_add_test (tc, test_wire_refused);
+  tcase_add_test (tc, test_undo_tooltips_name_the_step);
   tcase_add_loop_test (tc, test_bad_file_keeps_document, 0, G_N_ELEMENTS (bad_files));
   tcase_add_test (tc, test_save_as_reload);
+  tcase_add_test (tc, test_new_asks_before_discarding);
+  tcase_add_test (tc, test_save_as_through_the_chooser);
   tcase_add_test (tc, test_recent_files_capped);
   tcase_add_test (tc, test_title_tracks_unsaved);
   tcase_add_test (tc, test_drag_moves_snapped_one_step);
   tcase_add_test (tc, test_rubber_band_delete_rotate_flip);
   tcase_add_test (tc, test_copy_paste_keeps_internal_wires);
   tcase_add_test (tc, test_zoom_actions_keep_centre);
+  tcase_add_test (tc, test_pinch_and_middle_drag);
   tcase_add_test (tc, test_large_layout_edit_figure);
   tcase_add_test (tc, test_screenshots);
   suite_add_tcase (s, tc);
+  tcase_set_timeout (theme, 60);
+  tcase_add_unchecked_fixture (theme, app_setup, NULL);
+  tcase_add_test (theme, test_canvas_follows_theme_colours);
+  suite_add_tcase (s, theme);
   return s;
 }
 
 int
 main (int argc, char **argv)
 {
+  int status;
+
   gtk_init ();
-  return pl_check_run (editor_suite ());
+  status = pl_check_run (editor_suite ());
+  app_teardown ();
+  return status;
 }

@@ -36,18 +36,6 @@ app_teardown (void)
   g_clear_object (&app);
 }
 
-static void
-spin (guint ms)
-{
-  gint64 end = g_get_monotonic_time () + (gint64) ms * 1000;
-
-  while (g_get_monotonic_time () < end)
-    {
-      g_main_context_iteration (NULL, FALSE);
-      g_usleep (1000);
-    }
-}
-
 static PlWindow *
 open_demo (void)
 {
@@ -61,7 +49,7 @@ open_demo (void)
   for (int i = 0; i < 500 && !gtk_widget_get_mapped (GTK_WIDGET (window)); i++)
     g_main_context_iteration (NULL, TRUE);
   ck_assert_msg (pl_window_load_file (window, file, &error), "%s", error ? error->message : "");
-  spin (50);
+  pl_ui_test_spin (50);
   return window;
 }
 
@@ -142,11 +130,14 @@ START_TEST (test_export_dialog)
 
   ck_assert (gtk_widget_activate_action (GTK_WIDGET (window), "win.export-work-order", NULL));
   for (int i = 0; i < 200 && (dialog = find_dialog (window)) == NULL; i++)
-    spin (5);
+    pl_ui_test_spin (5);
   ck_assert_ptr_nonnull (dialog);
-  for (int i = 0; i < 500 && !gtk_widget_get_mapped (GTK_WIDGET (dialog)); i++)
-    g_main_context_iteration (NULL, TRUE);
-  spin (100);
+  /* Mapped, then laid out: on a loaded machine the first allocation can
+   * come well after the map. */
+  for (int i = 0; i < 1000 && (!gtk_widget_get_mapped (GTK_WIDGET (dialog))
+                               || gtk_widget_get_width (GTK_WIDGET (dialog)) == 0); i++)
+    pl_ui_test_spin (5);
+  pl_ui_test_spin (100);
   pl_ui_test_save_shot (GTK_WIDGET (dialog), "export-dialog.png");
   {
     guint n_drop_downs = 0, n_spins = 0;
@@ -171,7 +162,7 @@ START_TEST (test_export_dialog)
     ck_assert_uint_eq (n_spins, 1);
   }
   gtk_dialog_response (GTK_DIALOG (dialog), GTK_RESPONSE_CANCEL);
-  spin (50);
+  pl_ui_test_spin (50);
   ck_assert_ptr_null (find_dialog (window));
   gtk_window_destroy (GTK_WINDOW (window));
 }

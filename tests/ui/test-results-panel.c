@@ -331,6 +331,111 @@ START_TEST (test_no_mixed_revisions_and_stale)
 }
 END_TEST
 
+/* Runs the main loop for ms, frames included. */
+static void
+run_frames (guint ms)
+{
+  gint64 end = g_get_monotonic_time () + (gint64) ms * 1000;
+
+  while (g_get_monotonic_time () < end)
+    if (!g_main_context_iteration (NULL, FALSE))
+      g_usleep (1000);
+}
+
+/* Whether a label under widget reads text. */
+static gboolean
+shows_text (GtkWidget *widget, const char *text)
+{
+  if (GTK_IS_LABEL (widget) && g_strcmp0 (gtk_label_get_text (GTK_LABEL (widget)), text) == 0)
+    return TRUE;
+  for (GtkWidget *c = gtk_widget_get_first_child (widget); c != NULL;
+       c = gtk_widget_get_next_sibling (c))
+    if (shows_text (c, text))
+      return TRUE;
+  return FALSE;
+}
+
+static gpointer
+first_row (PlResultsTable table)
+{
+  GtkColumnView *view = GTK_COLUMN_VIEW (pl_results_panel_get_view (panel, table));
+  GListModel *model = G_LIST_MODEL (gtk_column_view_get_model (view));
+  g_autoptr (GObject) item = g_list_model_get_item (model, 0);
+
+  return item;
+}
+
+/* New figures for the same parts change the cells of the rows in place,
+ * on screen within a frame; a new part makes new rows, for a hidden page
+ * only once it is shown. */
+START_TEST (test_updates_in_place)
+{
+  g_autoptr (PlCommand) bore = pl_command_new_set_number ("p3", "bore", 0.0127);
+  g_autoptr (PlCommand) add = pl_command_new_add_part ("gauge", NULL, 0.0, -80.0);
+  g_autoptr (PlResults) wider = NULL, more = NULL;
+  g_autoptr (GError) error = NULL;
+  g_autofree char *before = NULL;
+  guint points_rebuilds, parts_rebuilds, n_points;
+  gpointer row;
+
+  open_sample ("demo-glue-line.pline");
+  pl_results_panel_show_page (panel, "points");
+  run_frames (100);
+  n_points = pl_results_panel_get_n_rows (panel, PL_RESULTS_TABLE_POINTS);
+  points_rebuilds = pl_results_panel_get_n_rebuilds (panel, PL_RESULTS_TABLE_POINTS);
+  parts_rebuilds = pl_results_panel_get_n_rebuilds (panel, PL_RESULTS_TABLE_PARTS);
+  row = first_row (PL_RESULTS_TABLE_POINTS);
+  before = g_strdup (pl_results_panel_get_cell (panel, PL_RESULTS_TABLE_POINTS, 0, 3));
+
+  /* A wider hose: the same rows, other figures. */
+  ck_assert (pl_command_apply (bore, doc, &error));
+  wider = pl_solve_scheduler_solve_sync (doc, NULL, &error);
+  ck_assert_msg (wider != NULL, "%s", error ? error->message : "");
+  pl_results_panel_set_results (panel, wider, wider, FALSE);
+  run_frames (100);
+  ck_assert_uint_eq (pl_results_panel_get_n_rebuilds (panel, PL_RESULTS_TABLE_POINTS),
+                     points_rebuilds);
+  ck_assert_ptr_eq (first_row (PL_RESULTS_TABLE_POINTS), row);
+  {
+    const char *now = pl_results_panel_get_cell (panel, PL_RESULTS_TABLE_POINTS, 0, 3);
+    double v;
+    g_autofree char *expected = NULL;
+    PlUnitPrefs si;
+
+    /* Row 0 is the first part's first port, the pump's outlet. */
+    pl_unit_prefs_init (&si, PL_UNIT_SYSTEM_SI);
+    ck_assert (pl_results_get_port_pressure (wider, "p1", "out", PL_PRESSURE_STEADY_OPEN, &v));
+    expected = pl_unit_format_number (v, PL_QUANTITY_PRESSURE, &si, PL_UNIT_DEFAULT_DIGITS,
+                                      PL_UNIT_DECIMAL_FROM_LOCALE);
+    ck_assert_str_eq (now, expected);
+    ck_assert_str_ne (now, before);
+    /* The widget showing it was told, without a new row. */
+    ck_assert_msg (shows_text (pl_results_panel_get_view (panel, PL_RESULTS_TABLE_POINTS), now),
+                   "no cell reads %s", now);
+  }
+
+  /* One more part: the visible table gets new rows within a frame, the
+   * hidden parts table when it is shown. */
+  ck_assert (pl_command_apply (add, doc, &error));
+  more = pl_solve_scheduler_solve_sync (doc, NULL, &error);
+  ck_assert_msg (more != NULL, "%s", error ? error->message : "");
+  pl_results_panel_set_results (panel, more, more, FALSE);
+  run_frames (100);
+  ck_assert_uint_eq (pl_results_panel_get_n_rebuilds (panel, PL_RESULTS_TABLE_POINTS),
+                     points_rebuilds + 1);
+  ck_assert_uint_eq (pl_results_panel_get_n_rebuilds (panel, PL_RESULTS_TABLE_PARTS),
+                     parts_rebuilds);
+  pl_results_panel_show_page (panel, "parts");
+  ck_assert_uint_eq (pl_results_panel_get_n_rebuilds (panel, PL_RESULTS_TABLE_PARTS),
+                     parts_rebuilds + 1);
+  ck_assert_uint_eq (pl_results_panel_get_n_rows (panel, PL_RESULTS_TABLE_POINTS),
+                     n_points + 1);
+  ck_assert_uint_eq (pl_results_panel_get_n_rows (panel, PL_RESULTS_TABLE_PARTS),
+                     pl_document_get_n_parts (doc));
+  close_sample ();
+}
+END_TEST
+
 START_TEST (test_screenshots)
 {
   static const char *const pages[] = { "points", "parts", "cycle", "shutdown", "findings" };
@@ -375,6 +480,7 @@ results_panel_suite (void)
   tcase_add_loop_test (tc, test_findings_in_user_units, 0, G_N_ELEMENTS (samples));
   tcase_add_test (tc, test_plots_draw);
   tcase_add_test (tc, test_no_mixed_revisions_and_stale);
+  tcase_add_test (tc, test_updates_in_place);
   tcase_add_test (tc, test_screenshots);
   suite_add_tcase (s, tc);
   return s;
