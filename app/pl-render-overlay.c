@@ -353,7 +353,14 @@ dose_bar (PlRenderCtx *ctx, const PlPart *part, double x, double y0)
   if (text == NULL)
     return;
   dose_block_size (ctx, text, dev, &bw, &bh, &w, &h);
-  y = ctx->opts->show_dose_details ? y0 + 0.8 : y0 + 0.5 * (bh - height);
+  if (ctx->opts->show_dose_details)
+    {
+      /* The bar centred over its figures. */
+      x += 0.5 * (bw - DOSE_BAR_MM);
+      y = y0 + 0.8;
+    }
+  else
+    y = y0 + 0.5 * (bh - height);
   color = fabs (dev) <= ctx->uniformity ? &ctx->pal->dose_ok : &ctx->pal->dose_bad;
   cairo_rectangle (ctx->cr, x, y, CLAMP (mean_at * (1.0 + dev), 0.0, DOSE_BAR_MM), height);
   pl_render_set_color (ctx, color);
@@ -371,7 +378,8 @@ dose_bar (PlRenderCtx *ctx, const PlPart *part, double x, double y0)
   pl_render_layout_text (ctx, text, pl_render_text_size (ctx, PL_RENDER_VALUE_MM),
                          fabs (dev) > ctx->uniformity, &w, &h);
   if (ctx->opts->show_dose_details)
-    pl_render_show_layout (ctx, x, y + height + 0.8 + DOSE_TEXT_GAP_MM, &ctx->pal->text);
+    pl_render_show_layout (ctx, x + 0.5 * (DOSE_BAR_MM - bw), y + height + 0.8 + DOSE_TEXT_GAP_MM,
+                           &ctx->pal->text);
   else
     pl_render_show_layout (ctx, x + DOSE_BAR_MM + 1.0, y + 0.5 * height - 0.5 * h,
                            &ctx->pal->text);
