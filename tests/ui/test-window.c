@@ -45,6 +45,14 @@ START_TEST (test_window_opens_with_saved_size)
   wait_until_mapped (GTK_WIDGET (window));
   ck_assert (gtk_widget_get_mapped (GTK_WIDGET (window)));
 
+  /* The application picks the cairo renderer unless told otherwise (the
+   * test environment does not set GSK_RENDERER). */
+  ck_assert_ptr_nonnull (g_getenv ("GSK_RENDERER"));
+  if (g_str_equal (g_getenv ("GSK_RENDERER"), "cairo"))
+    ck_assert_msg (GSK_IS_CAIRO_RENDERER (gtk_native_get_renderer (GTK_NATIVE (window))),
+                   "renderer: %s",
+                   G_OBJECT_TYPE_NAME (gtk_native_get_renderer (GTK_NATIVE (window))));
+
   gtk_window_get_default_size (GTK_WINDOW (window), &width, &height);
   ck_assert_int_eq (width, 900);
   ck_assert_int_eq (height, 640);
