@@ -27,7 +27,8 @@ fmt_percent (double fraction)
 }
 
 char *
-pl_finding_format_sentence (const PlFinding *f, PlResults *results, const PlUnitPrefs *prefs)
+pl_finding_format_sentence (const PlFinding *f, const PlResults *results,
+                            const PlUnitPrefs *prefs)
 {
   const PlCompiled *compiled;
   const PlCompiledPart *part = NULL;
@@ -172,6 +173,20 @@ pl_finding_format_sentence (const PlFinding *f, PlResults *results, const PlUnit
       v = fmt (f->value, PL_QUANTITY_PRESSURE, prefs);
       return g_strdup_printf (_("%s stays at %s after the air goes off: a closed valve or a "
                                 "check valve keeps it from every drain."), tag, v);
+    }
+  if (strcmp (code, "cycle-cavitation") == 0 || strcmp (code, "shutdown-cavitation") == 0)
+    {
+      v = fmt (f->value, PL_QUANTITY_PRESSURE, prefs);
+      l = fmt (f->limit, PL_QUANTITY_PRESSURE, prefs);
+      if (code[0] == 'c')
+        return g_strdup_printf (_("%s falls to %s in the firing cycle. A liquid parts "
+                                  "(cavitates) below about %s, which the model does not "
+                                  "follow: expect noise, wear and worse dosing there, and "
+                                  "treat the figures near it as rough."), tag, v, l);
+      return g_strdup_printf (_("%s falls to %s after the air goes off: the wave from the "
+                                "opening dump valve would part the liquid (cavitate) below "
+                                "about %s, which the model does not follow, so the drain "
+                                "figures near it are rough."), tag, v, l);
     }
   /* part-invalid, scenario-invalid, elevation-mismatch, solve-failed are
    * written translated by app/; anything else keeps the solver's words. */

@@ -20,7 +20,7 @@ G_BEGIN_DECLS
 
 /* The sentence for finding (one of results' findings; results gives the
  * tags and the check limits).  prefs may be NULL (SI).  Newly allocated. */
-char *pl_finding_format_sentence (const PlFinding *finding, PlResults *results,
+char *pl_finding_format_sentence (const PlFinding *finding, const PlResults *results,
                                   const PlUnitPrefs *prefs);
 /* Translated severity word, "Error", "Warning", "Note". */
 const char *pl_finding_get_severity_label (pls_severity severity);

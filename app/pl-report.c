@@ -59,6 +59,7 @@
 #include <math.h>
 #include <string.h>
 
+#include "pl-finding-text.h"
 #include "pl-json-writer.h"
 #include "pl-part-type.h"
 
@@ -797,9 +798,12 @@ pl_report_write_text (const PlResults *results, const PlUnitPrefs *prefs, const 
   for (guint i = 0; i < pl_results_get_n_findings (results); i++)
     {
       const PlFinding *f = pl_results_get_finding (results, i);
+      g_autofree char *sentence = pl_finding_format_sentence (f, results, prefs);
 
+      /* The sentence people read, in their units (the solver's own
+       * message, in fixed units, stays in the JSON and CSV). */
       g_string_append_printf (out, "  %-8s %-20s %s\n", pl_report_severity_label (f->severity),
-                              f->code, f->message);
+                              f->code, sentence);
     }
   return g_string_free (out, FALSE);
 }

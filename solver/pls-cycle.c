@@ -513,6 +513,10 @@ pls_cycle_finish (pls_cycle_result *r, pls__model *m, pls_tracker *tr, double v_
           != PLS_OK)
         return PLS_ERR_NOMEM;
     }
+  if (pls__cavitation_finding (&r->findings, a, net, r->pmin, r->n_nodes,
+                               "cycle-cavitation", "firing cycle")
+      != PLS_OK)
+    return PLS_ERR_NOMEM;
   for (k = 0; k < r->n_elements; k++)
     if (net->elements[k].kind == PLS_ELEMENT_NOZZLE
         && fabs (r->shot_dev[k]) > o->uniformity_tolerance)

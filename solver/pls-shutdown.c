@@ -314,6 +314,23 @@ pls_solve_shutdown (const pls_network *net, const pls_transient_options *options
                            o->shutdown_time) != PLS_OK)
     goto nomem;
 
+  /* The lowest pressure of each node over the run's steps. */
+  {
+    double *pmin = pls__calloc (a, n, sizeof (double));
+    size_t j, w = n + r->n_elements;
+
+    if (pmin == NULL)
+      goto nomem;
+    for (i = 0; i < n; i++)
+      for (pmin[i] = d.p[i], j = 1; j < d.count; j++)
+        pmin[i] = fmin (pmin[i], d.p[j * w + i]);
+    st = pls__cavitation_finding (&r->findings, a, net, pmin, n, "shutdown-cavitation",
+                                  "shutdown");
+    pls__free (a, pmin);
+    if (st != PLS_OK)
+      goto nomem;
+  }
+
   /* Series: the run's steps resampled evenly from the start to the safe
    * time (to the run's end when it never got there). */
   r->samples = PLS_SHUTDOWN_SAMPLES;

@@ -630,7 +630,9 @@ void pls_cycle_result_volumes (const pls_cycle_result *r, double *pumped, double
 /* Findings: "no-recovery" (a node not back within the recovery fraction
  * before the next shot, warning), "shot-uniformity" (a shot outside the
  * uniformity tolerance of the mean, warning), "not-periodic" (max_cycles
- * reached, warning). */
+ * reached, warning), "cycle-cavitation" (warning: a node's model pressure
+ * below about -1 bar gauge, where a real liquid column would part; value
+ * the lowest, limit -101 325 Pa). */
 size_t pls_cycle_finding_count (const pls_cycle_result *r);
 const pls_finding *pls_cycle_finding (const pls_cycle_result *r, size_t index);
 
@@ -672,7 +674,8 @@ double pls_shutdown_sample_pressure (const pls_shutdown_result *r, int node, siz
 double pls_shutdown_sample_flow (const pls_shutdown_result *r, int element, size_t i);
 /* Findings: "trapped-pressure" (error: a volume that stays above the safe
  * pressure behind a closed valve or check valve), "shutdown-slow"
- * (warning: not safe within shutdown_time). */
+ * (warning: not safe within shutdown_time), "shutdown-cavitation" (as
+ * "cycle-cavitation", over the shutdown). */
 size_t pls_shutdown_finding_count (const pls_shutdown_result *r);
 const pls_finding *pls_shutdown_finding (const pls_shutdown_result *r, size_t index);
 

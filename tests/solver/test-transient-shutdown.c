@@ -159,6 +159,95 @@ START_TEST (test_trapped_volume)
 }
 END_TEST
 
+/* Lowest recorded pressure of node i over the shutdown's series. */
+static double
+series_min (const pls_shutdown_result *r, int node)
+{
+  double lo = INFINITY;
+  size_t s;
+
+  for (s = 0; s < pls_shutdown_sample_count (r); s++)
+    lo = fmin (lo, pls_shutdown_sample_pressure (r, node, s));
+  return lo;
+}
+
+/* A dump valve opened wide on a pipe that ends closed sends a rarefaction
+ * wave down it that comes back doubled from the closed end: Joukowsky's
+ * dp = rho c dv, reflected with the same sign at a dead end (Wylie &
+ * Streeter, Fluid Transients in Systems, 1993, sec. 1.3; from memory),
+ * so the far end of a nearly lossless line swings to about minus its
+ * idle pressure.  A liquid parts below about -1 bar gauge, so the
+ * shutdown must say the model went there; a dump valve 500 times
+ * smaller drains without the swing (lowest +0.87 bar) and says nothing. */
+START_TEST (test_cavitation_flagged)
+{
+  static const double kvs[] = { 5.0, 0.01 };
+  pls_line_params pipe = pls_test_pipe (20.0, 10e-3);
+  size_t i;
+
+  for (i = 0; i < sizeof kvs / sizeof kvs[0]; i++)
+    {
+      pls_fluid_params f;
+      pls_pump_params pp;
+      pls_valve_params dv;
+      pls_transient_options o;
+      pls_shutdown_result *r;
+      pls_network *net;
+      int tank, n1, far, found = 0;
+      size_t k;
+
+      pls_fluid_params_init (&f);
+      f.law = PLS_VISCOSITY_NEWTONIAN;
+      f.mu = 1e-3;                /* water-thin: the wave is barely damped */
+      net = pls_network_new (&f, NULL, NULL);
+      memset (&pp, 0, sizeof pp);
+      pp.ratio = 30.0;
+      pp.displacement = 40e-6;
+      pp.max_cycle_rate = 2.0;
+      pp.curve_exponent = 1.0;
+      memset (&dv, 0, sizeof dv);
+      dv.kind = PLS_VALVE_DUMP;
+      dv.kv = kvs[i];
+      dv.bore = 10e-3;
+      tank = pls_network_add_fixed_node (net, 0.0, 0.0, "tank", NULL);
+      n1 = pls_network_add_node (net, 0.0, "N1", NULL);
+      far = pls_network_add_node (net, 0.0, "FAR", NULL);
+      ck_assert_int_ge (pls_network_add_pump (net, tank, n1, &pp, "P1", NULL), 0);
+      ck_assert_int_ge (pls_network_add_valve (net, n1, tank, &dv, "DV1", NULL), 0);
+      ck_assert_int_ge (pls_network_add_line (net, n1, far, &pipe, "L1", NULL), 0);
+      pls_transient_options_init (&o);
+      r = shut (net, &o);
+      for (k = 0; k < pls_shutdown_finding_count (r); k++)
+        {
+          const pls_finding *fd = pls_shutdown_finding (r, k);
+
+          if (strcmp (fd->code, "shutdown-cavitation") == 0)
+            {
+              found = 1;
+              ck_assert_double_lt (fd->value, -101325.0);
+              ck_assert_double_eq (fd->limit, -101325.0);
+              ck_assert_msg (strstr (fd->message, "FAR") != NULL, "%s", fd->message);
+            }
+        }
+      if (i == 0)
+        {
+          ck_assert_msg (found, "no cavitation finding; far end's lowest %g Pa",
+                         series_min (r, far));
+          /* Towards minus the idle pressure (18 MPa), less what the line
+           * and the valve's finite opening take off (measured -5.8 MPa). */
+          ck_assert_double_lt (series_min (r, far), -0.2 * 18e6);
+        }
+      else
+        {
+          ck_assert_msg (!found, "cavitation flagged on a slow drain");
+          ck_assert_double_gt (series_min (r, far), -101325.0);
+        }
+      pls_shutdown_result_free (r);
+      pls_network_free (net);
+    }
+}
+END_TEST
+
 /* ---- bad input: a clear status naming the part or the option ------------ */
 
 typedef struct
@@ -305,6 +394,7 @@ transient_shutdown_suite (void)
   tcase_set_timeout (tc, 120);
   tcase_add_test (tc, test_layout_drains);
   tcase_add_test (tc, test_trapped_volume);
+  tcase_add_test (tc, test_cavitation_flagged);
   tcase_add_loop_test (tb, test_bad_options, 0, (int) (sizeof bad_cases / sizeof bad_cases[0]));
   tcase_add_test (tb, test_bad_accumulator);
   tcase_add_test (tb, test_bad_calls);
