@@ -69,6 +69,35 @@ pl_ui_test_wait_for_full (PlWindow *window)
   ck_abort_msg ("no full results within 60 s");
 }
 
+/* A window of 1400 x 900 presented, mapped and laid out (on a loaded
+ * machine the first allocation, which fits the canvas's view, can come
+ * well after the map: a pointer aimed before it would miss), with the
+ * layout at path (from the source tree's top, "samples/X.pline") loaded
+ * when path is not NULL. */
+static inline PlWindow *
+pl_ui_test_open_window (PlApplication *app, const char *path)
+{
+  PlWindow *window = pl_window_new (app);
+
+  gtk_window_set_default_size (GTK_WINDOW (window), 1400, 900);
+  gtk_window_present (GTK_WINDOW (window));
+  for (int i = 0; i < 2000 && (!gtk_widget_get_mapped (GTK_WIDGET (window))
+                               || gtk_widget_get_width (pl_window_get_canvas (window)) == 0);
+       i++)
+    pl_ui_test_spin (5);
+  if (path != NULL)
+    {
+      g_autofree char *full = g_build_filename (g_getenv ("PRESSLINE_SOURCE_ROOT"), path, NULL);
+      g_autoptr (GFile) file = g_file_new_for_path (full);
+      g_autoptr (GError) error = NULL;
+
+      ck_assert_msg (pl_window_load_file (window, file, &error), "%s: %s", path,
+                     error ? error->message : "");
+    }
+  pl_ui_test_spin (50);
+  return window;
+}
+
 /* What a widget shows, rendered by its own renderer. */
 static inline GdkTexture *
 pl_ui_test_render_widget (GtkWidget *widget)

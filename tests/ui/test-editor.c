@@ -58,32 +58,6 @@ source_path (const char *relative)
   return g_build_filename (root, relative, NULL);
 }
 
-static PlWindow *
-open_window (const char *sample)
-{
-  PlWindow *window = pl_window_new (app);
-  g_autoptr (GError) error = NULL;
-
-  gtk_window_set_default_size (GTK_WINDOW (window), 1400, 900);
-  gtk_window_present (GTK_WINDOW (window));
-  /* Mapped, then laid out: on a loaded machine the canvas's first
-   * allocation (which fits the view) can come well after the map, and a
-   * pointer aimed before it would miss. */
-  for (int i = 0; i < 2000 && (!gtk_widget_get_mapped (GTK_WIDGET (window))
-                               || gtk_widget_get_width (pl_window_get_canvas (window)) == 0);
-       i++)
-    pl_ui_test_spin (5);
-  if (sample != NULL)
-    {
-      g_autofree char *path = source_path (sample);
-      g_autoptr (GFile) file = g_file_new_for_path (path);
-      ck_assert_msg (pl_window_load_file (window, file, &error), "%s: %s", sample,
-                     error ? error->message : "");
-    }
-  pl_ui_test_spin (60);
-  return window;
-}
-
 static void
 close_window (PlWindow *window)
 {
@@ -159,7 +133,7 @@ static const char *const samples[] = {
 
 START_TEST (test_open_sample)
 {
-  PlWindow *window = open_window (samples[_i]);
+  PlWindow *window = pl_ui_test_open_window (app, samples[_i]);
   PlDocument *doc = pl_window_get_document (window);
   g_autofree char *base = g_path_get_basename (samples[_i]);
   g_autofree char *title = g_strdup_printf ("%s — Pressline", base);
@@ -196,7 +170,7 @@ END_TEST
 
 START_TEST (test_shelf_wire_bore_undo)
 {
-  PlWindow *window = open_window ("samples/carton-sealer-starved.pline");
+  PlWindow *window = pl_ui_test_open_window (app, "samples/carton-sealer-starved.pline");
   PlDocument *doc = pl_window_get_document (window);
   PlCanvas *canvas = canvas_of (window);
   PlShelf *shelf = PL_SHELF (pl_window_get_shelf (window));
@@ -281,7 +255,7 @@ END_TEST
 
 START_TEST (test_wire_refused)
 {
-  PlWindow *window = open_window ("samples/demo-glue-line.pline");
+  PlWindow *window = pl_ui_test_open_window (app, "samples/demo-glue-line.pline");
   PlDocument *doc = pl_window_get_document (window);
   PlCanvas *canvas = canvas_of (window);
   guint n_wires;
@@ -335,7 +309,7 @@ button_for_action (GtkWidget *widget, const char *action)
 /* Undo and redo name the step in their tooltips, and follow each change. */
 START_TEST (test_undo_tooltips_name_the_step)
 {
-  PlWindow *window = open_window ("samples/demo-glue-line.pline");
+  PlWindow *window = pl_ui_test_open_window (app, "samples/demo-glue-line.pline");
   PlUndoStack *undo = pl_window_get_undo_stack (window);
   PlDocument *doc = pl_window_get_document (window);
   GtkWidget *undo_button = button_for_action (GTK_WIDGET (window), "win.undo");
@@ -381,7 +355,7 @@ static const char *const bad_files[] = {
 
 START_TEST (test_bad_file_keeps_document)
 {
-  PlWindow *window = open_window ("samples/demo-glue-line.pline");
+  PlWindow *window = pl_ui_test_open_window (app, "samples/demo-glue-line.pline");
   PlDocument *doc = pl_window_get_document (window);
   g_autoptr (PlDocument) copy = pl_document_copy (doc);
   g_autofree char *path = source_path (bad_files[_i]);
@@ -460,7 +434,7 @@ START_TEST (test_new_asks_before_discarding)
   g_autofree char *data = NULL;
   g_autoptr (GFile) file = g_file_new_for_path (path);
   g_autoptr (PlDocument) saved = NULL;
-  PlWindow *window = open_window (NULL);
+  PlWindow *window = pl_ui_test_open_window (app, NULL);
   PlDocument *doc;
   GtkWindow *prompt;
   gsize len;
@@ -535,7 +509,7 @@ START_TEST (test_save_as_through_the_chooser)
   g_autofree char *path = g_build_filename (dir, "chosen.pline", NULL);
   g_autoptr (GFile) folder = g_file_new_for_path (dir);
   g_autoptr (PlDocument) back = NULL;
-  PlWindow *window = open_window ("samples/demo-glue-line.pline");
+  PlWindow *window = pl_ui_test_open_window (app, "samples/demo-glue-line.pline");
   GtkWindow *chooser;
 
   make_dirty (window);
@@ -568,7 +542,7 @@ END_TEST
 
 START_TEST (test_save_as_reload)
 {
-  PlWindow *window = open_window ("samples/demo-glue-line.pline");
+  PlWindow *window = pl_ui_test_open_window (app, "samples/demo-glue-line.pline");
   PlDocument *doc = pl_window_get_document (window);
   g_autoptr (GError) error = NULL;
   g_autofree char *dir = g_dir_make_tmp ("pressline-ui-XXXXXX", &error);
@@ -609,7 +583,7 @@ END_TEST
 START_TEST (test_recent_files_capped)
 {
   GSettings *settings = pl_application_get_settings (app);
-  PlWindow *window = open_window ("samples/demo-glue-line.pline");
+  PlWindow *window = pl_ui_test_open_window (app, "samples/demo-glue-line.pline");
   g_autoptr (GError) error = NULL;
   g_autofree char *dir = g_dir_make_tmp ("pressline-recent-XXXXXX", &error);
   g_auto (GStrv) recent = NULL;
@@ -649,7 +623,7 @@ END_TEST
 
 START_TEST (test_title_tracks_unsaved)
 {
-  PlWindow *window = open_window (NULL);
+  PlWindow *window = pl_ui_test_open_window (app, NULL);
   PlCanvas *canvas = canvas_of (window);
   PlPoint origin = { 0, 0 };
   g_autofree char *id = NULL;
@@ -671,7 +645,7 @@ END_TEST
 
 START_TEST (test_drag_moves_snapped_one_step)
 {
-  PlWindow *window = open_window ("samples/demo-glue-line.pline");
+  PlWindow *window = pl_ui_test_open_window (app, "samples/demo-glue-line.pline");
   PlDocument *doc = pl_window_get_document (window);
   PlCanvas *canvas = canvas_of (window);
   PlUndoStack *undo = pl_window_get_undo_stack (window);
@@ -722,7 +696,7 @@ END_TEST
 
 START_TEST (test_rubber_band_delete_rotate_flip)
 {
-  PlWindow *window = open_window ("samples/demo-glue-line.pline");
+  PlWindow *window = pl_ui_test_open_window (app, "samples/demo-glue-line.pline");
   PlDocument *doc = pl_window_get_document (window);
   PlCanvas *canvas = canvas_of (window);
   g_autoptr (PlDocument) copy = pl_document_copy (doc);
@@ -769,7 +743,7 @@ END_TEST
 
 START_TEST (test_copy_paste_keeps_internal_wires)
 {
-  PlWindow *window = open_window ("samples/demo-glue-line.pline");
+  PlWindow *window = pl_ui_test_open_window (app, "samples/demo-glue-line.pline");
   PlDocument *doc = pl_window_get_document (window);
   PlCanvas *canvas = canvas_of (window);
   g_autoptr (PlDocument) copy = pl_document_copy (doc);
@@ -817,7 +791,7 @@ END_TEST
 
 START_TEST (test_zoom_actions_keep_centre)
 {
-  PlWindow *window = open_window ("samples/demo-glue-line.pline");
+  PlWindow *window = pl_ui_test_open_window (app, "samples/demo-glue-line.pline");
   PlCanvas *canvas = canvas_of (window);
   const PlViewport *vp = pl_canvas_get_viewport (canvas);
   PlPoint centre = { vp->width / 2, vp->height / 2 }, w0, w1;
@@ -870,7 +844,7 @@ canvas_controller (PlCanvas *canvas, GType type, guint button)
  * the real ones. */
 START_TEST (test_pinch_and_middle_drag)
 {
-  PlWindow *window = open_window ("samples/demo-glue-line.pline");
+  PlWindow *window = pl_ui_test_open_window (app, "samples/demo-glue-line.pline");
   PlCanvas *canvas = canvas_of (window);
   const PlViewport *vp = pl_canvas_get_viewport (canvas);
   GtkEventController *zoom = canvas_controller (canvas, GTK_TYPE_GESTURE_ZOOM, 0);
@@ -917,7 +891,7 @@ END_TEST
 
 START_TEST (test_large_layout_edit_figure)
 {
-  PlWindow *window = open_window (NULL);
+  PlWindow *window = pl_ui_test_open_window (app, NULL);
   PlDocument *doc = pl_window_get_document (window);
   PlUndoStack *undo = pl_window_get_undo_stack (window);
   g_autoptr (PlDocument) big = pl_document_new ();
@@ -1039,7 +1013,7 @@ mean_luma (GdkTexture *texture)
 START_TEST (test_screenshots)
 {
   GtkSettings *settings = gtk_settings_get_default ();
-  PlWindow *window = open_window ("samples/demo-glue-line.pline");
+  PlWindow *window = pl_ui_test_open_window (app, "samples/demo-glue-line.pline");
   PlCanvas *canvas = canvas_of (window);
   const char *gauge = id_of_tag (window, "G1");
   const char *ids[] = { id_of_tag (window, "H1"), NULL };
@@ -1088,7 +1062,7 @@ START_TEST (test_canvas_follows_theme_colours)
 {
   const char *theme = g_getenv ("GTK_THEME");
   gboolean dark_theme = theme != NULL && g_str_has_suffix (theme, ":dark");
-  PlWindow *window = open_window ("samples/demo-glue-line.pline");
+  PlWindow *window = pl_ui_test_open_window (app, "samples/demo-glue-line.pline");
   PlCanvas *canvas = canvas_of (window);
   GdkRGBA fg;
   double luma;

@@ -36,23 +36,6 @@ app_teardown (void)
   g_clear_object (&app);
 }
 
-static PlWindow *
-open_demo (void)
-{
-  PlWindow *window = pl_window_new (app);
-  g_autofree char *path = g_build_filename (g_getenv ("PRESSLINE_SOURCE_ROOT"), "samples",
-                                            "demo-glue-line.pline", NULL);
-  g_autoptr (GFile) file = g_file_new_for_path (path);
-  g_autoptr (GError) error = NULL;
-
-  gtk_window_present (GTK_WINDOW (window));
-  for (int i = 0; i < 500 && !gtk_widget_get_mapped (GTK_WIDGET (window)); i++)
-    g_main_context_iteration (NULL, TRUE);
-  ck_assert_msg (pl_window_load_file (window, file, &error), "%s", error ? error->message : "");
-  pl_ui_test_spin (50);
-  return window;
-}
-
 static char *
 pdftotext (const char *pdf)
 {
@@ -81,7 +64,7 @@ count (const char *text, const char *needle)
  * 1240 x 1754 pixels (ISO 216 A4, 210 x 297 mm, at 150 dpi). */
 START_TEST (test_export_action)
 {
-  PlWindow *window = open_demo ();
+  PlWindow *window = pl_ui_test_open_window (app, "samples/demo-glue-line.pline");
   g_autofree char *pdf = g_build_filename (pl_tmpdir, "from-action.pdf", NULL);
   g_autofree char *png = g_build_filename (pl_tmpdir, "from-action.png", NULL);
   g_autofree char *text = NULL;
@@ -125,7 +108,7 @@ find_dialog (PlWindow *window)
  * and resolution choices; cancelling closes it and writes nothing. */
 START_TEST (test_export_dialog)
 {
-  PlWindow *window = open_demo ();
+  PlWindow *window = pl_ui_test_open_window (app, "samples/demo-glue-line.pline");
   GtkWindow *dialog;
 
   ck_assert (gtk_widget_activate_action (GTK_WIDGET (window), "win.export-work-order", NULL));
@@ -172,7 +155,7 @@ END_TEST
  * page each, through begin-print and draw-page. */
 START_TEST (test_print_export)
 {
-  PlWindow *window = open_demo ();
+  PlWindow *window = pl_ui_test_open_window (app, "samples/demo-glue-line.pline");
   g_autofree char *pdf = g_build_filename (pl_tmpdir, "printed.pdf", NULL);
   g_autoptr (GError) error = NULL;
   g_autofree char *text = NULL, *last = NULL;

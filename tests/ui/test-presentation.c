@@ -48,16 +48,9 @@ app_teardown (void)
 static PlWindow *
 open_sample (const char *name)
 {
-  PlWindow *window = pl_window_new (app);
-  g_autofree char *path = g_build_filename (g_getenv ("PRESSLINE_SOURCE_ROOT"), "samples",
-                                            name, NULL);
-  g_autoptr (GFile) file = g_file_new_for_path (path);
-  g_autoptr (GError) error = NULL;
+  g_autofree char *path = g_build_filename ("samples", name, NULL);
+  PlWindow *window = pl_ui_test_open_window (app, path);
 
-  gtk_window_present (GTK_WINDOW (window));
-  for (int i = 0; i < 500 && !gtk_widget_get_mapped (GTK_WIDGET (window)); i++)
-    g_main_context_iteration (NULL, TRUE);
-  ck_assert_msg (pl_window_load_file (window, file, &error), "%s", error ? error->message : "");
   pl_ui_test_wait_for_full (window);
   return window;
 }
