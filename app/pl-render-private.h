@@ -14,13 +14,14 @@ G_BEGIN_DECLS
 
 /* Sizes on the drawing (mm), the project's own choices.  Text sizes are
  * raised so that no text is drawn below MIN_TEXT_PX device pixels while
- * there is room, and dropped below HIDE_TEXT_PX (unreadable there). */
+ * there is room, and dropped below HIDE_TEXT_PX of their own size (raised
+ * beyond 2.8 times they would crowd the symbols). */
 #define PL_RENDER_INK_MM 0.45        /* outline of symbols */
 #define PL_RENDER_WIRE_MM 0.9        /* wires */
 #define PL_RENDER_TAG_MM 3.4         /* a part's tag */
 #define PL_RENDER_VALUE_MM 2.8       /* its key value */
 #define PL_RENDER_MIN_TEXT_PX 7.0
-#define PL_RENDER_HIDE_TEXT_PX 3.5
+#define PL_RENDER_HIDE_TEXT_PX 2.5
 /* The smallest text on paper, 1.8 mm (about 5 pt), still read with the
  * sheet in hand (common practice, no source). */
 #define PL_RENDER_PAPER_TEXT_MM 1.8

@@ -371,10 +371,13 @@ pl_param_row_new (PlDocument *doc, PlUndoStack *undo, const PlUnitPrefs *prefs,
   label = spec != NULL ? _(spec->label) : _("Tag");
   self->label = gtk_label_new (label);
   gtk_label_set_xalign (GTK_LABEL (self->label), 0.0);
-  /* Long labels wrap rather than lose their end ("Rated working pressure"). */
+  /* Long labels wrap rather than lose their end ("Rated working
+   * pressure"), between words only: room for the longest word of a label
+   * ("temperature", "coefficient") keeps a narrow inspector from splitting
+   * one in the middle. */
   gtk_label_set_wrap (GTK_LABEL (self->label), TRUE);
-  gtk_label_set_wrap_mode (GTK_LABEL (self->label), PANGO_WRAP_WORD_CHAR);
-  gtk_label_set_width_chars (GTK_LABEL (self->label), 8);
+  gtk_label_set_wrap_mode (GTK_LABEL (self->label), PANGO_WRAP_WORD);
+  gtk_label_set_width_chars (GTK_LABEL (self->label), 12);
   gtk_label_set_max_width_chars (GTK_LABEL (self->label), 18);
   gtk_widget_set_hexpand (self->label, TRUE);
   gtk_box_append (GTK_BOX (line), self->label);
