@@ -10,9 +10,12 @@ PRESSLINE_BUILD_PACKAGES="gcc meson ninja-build pkg-config libgtk-4-dev libxml2-
   librsvg2-common"
 
 # To test: Check, GSL (the independent reference), validators, a headless X
-# server with a session bus, PDF and image tools for the export checks.
+# server with a session bus, PDF and image tools for the export checks, and
+# fonts with Cyrillic and CJK glyphs (the work-order test prints a title in
+# both and reads it back from the PDF; a bare system has neither).
 PRESSLINE_TEST_PACKAGES="check libgsl-dev libxml2-utils desktop-file-utils
-  appstream xvfb xauth dbus-daemon poppler-utils imagemagick locales"
+  appstream xvfb xauth dbus-daemon poppler-utils imagemagick locales
+  fonts-dejavu-core fonts-droid-fallback"
 
 pressline_missing_packages ()
 {
