@@ -134,8 +134,16 @@ from_slider (guint c, double x)
 static void
 show_value (PlWhatIf *self, guint c, double v)
 {
-  g_autofree char *text = pl_unit_format (v, controls[c].quantity, &self->units, 3,
-                                          PL_UNIT_DECIMAL_FROM_LOCALE);
+  /* The parameter's own quantity where there is one: the viscosity
+   * control sets a power law's consistency, in Pa s^n. */
+  const PlPart *part = find_target (self, controls[c].target);
+  const PlParamSpec *spec = part != NULL
+                            ? pl_part_type_find_param (pl_part_get_part_type (part),
+                                                       param_of (self, c), NULL)
+                            : NULL;
+  g_autofree char *text = pl_unit_format (v, spec != NULL ? spec->quantity
+                                                          : controls[c].quantity,
+                                          &self->units, 3, PL_UNIT_DECIMAL_FROM_LOCALE);
 
   gtk_label_set_text (GTK_LABEL (self->values[c]), text);
 }
