@@ -62,21 +62,24 @@ gauge_place (PlWorkOrder *wo, const PlPart *gauge)
   return g_strdup (_("not connected"));
 }
 
+/* A row of the gauges table: the readings at one port (a gauge's own, or
+ * a suggested point's), after the three cells that say which gauge, where
+ * and its full scale (taken over). */
 static char **
-gauge_row (PlWorkOrder *wo, const PlPart *gauge)
+readings_row (PlWorkOrder *wo, char *name, char *place, char *full_scale, const char *id,
+              const char *port)
 {
-  const char *id = pl_part_get_id (gauge), *why = NULL;
+  const char *why = NULL;
   char **cells = g_new0 (char *, 8);
   double idle = 0, low = 0, high = 0, rec = 0;
   gboolean have_cycle = cycle_known (wo, &why), ok;
   PlResults *r = wo->results;
 
-  cells[0] = g_strdup (pl_part_get_tag (gauge));
-  cells[1] = gauge_place (wo, gauge);
-  cells[2] = pl_wo_format (wo, PL_QUANTITY_PRESSURE, TRUE,
-                           pl_part_get_number (gauge, "full-scale"));
+  cells[0] = name;
+  cells[1] = place;
+  cells[2] = full_scale;
   /* Each lookup before its use: argument order is unspecified in C. */
-  ok = r != NULL && pl_results_get_port_pressure (r, id, "p", PL_PRESSURE_IDLE, &idle);
+  ok = r != NULL && pl_results_get_port_pressure (r, id, port, PL_PRESSURE_IDLE, &idle);
   cells[3] = pl_wo_format (wo, PL_QUANTITY_PRESSURE, ok, idle);
   if (!have_cycle)
     {
@@ -85,11 +88,11 @@ gauge_row (PlWorkOrder *wo, const PlPart *gauge)
       cells[6] = g_strdup (why);
       return cells;
     }
-  ok = pl_results_get_port_pressure (r, id, "p", PL_PRESSURE_CYCLE_MIN, &low);
+  ok = pl_results_get_port_pressure (r, id, port, PL_PRESSURE_CYCLE_MIN, &low);
   cells[4] = pl_wo_format (wo, PL_QUANTITY_PRESSURE, ok, low);
-  ok = pl_results_get_port_pressure (r, id, "p", PL_PRESSURE_CYCLE_MAX, &high);
+  ok = pl_results_get_port_pressure (r, id, port, PL_PRESSURE_CYCLE_MAX, &high);
   cells[5] = pl_wo_format (wo, PL_QUANTITY_PRESSURE, ok, high);
-  if (!pl_results_get_port_recovery (r, id, "p", &rec))
+  if (!pl_results_get_port_recovery (r, id, port, &rec))
     cells[6] = g_strdup ("–");
   else if (rec < 0.0)
     cells[6] = g_strdup (_("not before the next shot"));
@@ -98,17 +101,116 @@ gauge_row (PlWorkOrder *wo, const PlPart *gauge)
   return cells;
 }
 
+static char **
+gauge_row (PlWorkOrder *wo, const PlPart *gauge)
+{
+  return readings_row (wo, g_strdup (pl_part_get_tag (gauge)), gauge_place (wo, gauge),
+                       pl_wo_format (wo, PL_QUANTITY_PRESSURE, TRUE,
+                                     pl_part_get_number (gauge, "full-scale")),
+                       pl_part_get_id (gauge), "p");
+}
+
+/* The smallest standard dial range (Pa) at least factor times the highest
+ * reading: the design check's own rule for a gauge's full scale (the
+ * scenario's gauge_low_factor, 1.5 unless changed), so that a suggested
+ * gauge passes it.  The ranges are the 1, 1.6, 2.5, 4, 6 series of bar
+ * and its decades (EN 837-1; from memory). */
+static double
+suggested_full_scale (double reading, double factor)
+{
+  static const double steps[] = { 1.0, 1.6, 2.5, 4.0, 6.0 };
+  double need = MAX (factor, 1.0) * MAX (reading, 1e5);
+
+  for (double decade = 1e5; decade < 1e10; decade *= 10.0)
+    for (guint i = 0; i < G_N_ELEMENTS (steps); i++)
+      if (steps[i] * decade >= need)
+        return steps[i] * decade;
+  return need;
+}
+
+static void
+add_suggestion (PlWorkOrder *wo, PlWoTable *t, const PlPart *part, const char *port)
+{
+  PlResults *r = wo->results;
+  const PlPortSpec *spec = pl_part_type_find_port (pl_part_get_part_type (part), port, NULL);
+  double idle = 0.0, high = 0.0, factor;
+  gboolean ok = r != NULL && pl_results_get_port_pressure (r, pl_part_get_id (part), port,
+                                                           PL_PRESSURE_IDLE, &idle);
+
+  /* The highest reading: idle, or a surge of the cycle above it. */
+  if (ok && pl_results_get_port_pressure (r, pl_part_get_id (part), port,
+                                          PL_PRESSURE_CYCLE_MAX, &high))
+    idle = MAX (idle, high);
+  factor = r != NULL
+           ? pl_compiled_get_steady_options (pl_results_get_compiled (r))->gauge_low_factor
+           : 1.5;
+
+  pl_wo_table_add_row (t, readings_row (wo,
+                                        /* Translators: the name of a gauge the sheet
+                                         * suggests fitting (a narrow column). */
+                                        g_strdup (C_("gauge", "new")),
+                                        /* Translators: "P1 Outlet", as in gauge_place. */
+                                        g_strdup_printf (_("%s %s"), pl_part_get_tag (part),
+                                                         spec != NULL ? _(spec->label) : port),
+                                        pl_wo_format (wo, PL_QUANTITY_PRESSURE, ok,
+                                                      suggested_full_scale (idle, factor)),
+                                        pl_part_get_id (part), port));
+}
+
+/* Where to fit gauges on a line that has none: every pump's outlet (what
+ * the pump makes) and the inlet of the applicator that sees the lowest
+ * pressure while firing, or held open when the cycle is unknown (what the
+ * line's worst station gets).  The two readings apart tell a technician
+ * what the line loses. */
+static void
+add_suggestions (PlWorkOrder *wo, PlWoTable *t)
+{
+  const PlPart *worst = NULL;
+  double worst_p = INFINITY;
+  PlPressureKind kind = wo->results != NULL && pl_results_get_cycle (wo->results) != NULL
+                        ? PL_PRESSURE_CYCLE_MIN : PL_PRESSURE_STEADY_OPEN;
+
+  for (guint i = 0; i < pl_document_get_n_parts (wo->doc); i++)
+    {
+      const PlPart *part = pl_document_get_part (wo->doc, i);
+      PlPartKind k = pl_part_get_part_type (part)->kind;
+      double p;
+
+      if (k == PL_PART_PUMP)
+        add_suggestion (wo, t, part, "out");
+      else if (k == PL_PART_APPLICATOR && wo->results != NULL
+               && pl_results_get_port_pressure (wo->results, pl_part_get_id (part), "in",
+                                                kind, &p)
+               && p < worst_p)
+        {
+          worst = part;
+          worst_p = p;
+        }
+    }
+  if (worst != NULL)
+    add_suggestion (wo, t, worst, "in");
+}
+
 /* The note under the gauges: what each reading means, and why some are
  * missing. */
 static char *
-gauges_note (PlWorkOrder *wo)
+gauges_note (PlWorkOrder *wo, gboolean suggested)
 {
   const char *why = NULL;
-  GString *note = g_string_new (_("At idle: air on, every applicator shut. Lowest while "
-                                  "firing: the lowest reading over a firing cycle once the "
-                                  "cycles repeat. After recovery: the highest reading "
-                                  "between shots. Recovery time: from the end of a shot "
-                                  "until the reading is back near its idle value."));
+  GString *note = g_string_new (NULL);
+
+  if (suggested)
+    g_string_append (note, _("The layout has no gauges; the new ones are suggested: the "
+                             "pump outlet shows what the pump makes, the applicator that "
+                             "sees the lowest pressure shows what the line delivers, and "
+                             "the two apart show what the line loses. Full scale: the "
+                             "smallest standard range that the design check accepts for "
+                             "the highest reading. "));
+  g_string_append (note, _("At idle: air on, every applicator shut. Lowest while "
+                           "firing: the lowest reading over a firing cycle once the "
+                           "cycles repeat. After recovery: the highest reading between "
+                           "shots. Recovery time: from the end of a shot until the reading "
+                           "is back near its idle value."));
 
   if (!cycle_known (wo, &why))
     {
@@ -129,6 +231,8 @@ pl_wo_gauges_table (PlWorkOrder *wo)
   PlWoTable *t = pl_wo_table_new (_("Gauges to fit and the readings to expect"), 7, headers,
                                   widths, _("The layout has no gauges."));
 
+  gboolean suggested = FALSE;
+
   for (guint i = 0; i < pl_document_get_n_parts (wo->doc); i++)
     {
       const PlPart *part = pl_document_get_part (wo->doc, i);
@@ -136,9 +240,14 @@ pl_wo_gauges_table (PlWorkOrder *wo)
       if (pl_part_get_part_type (part)->kind == PL_PART_GAUGE)
         pl_wo_table_add_row (t, gauge_row (wo, part));
     }
+  if (t->rows->len == 0)
+    {
+      add_suggestions (wo, t);
+      suggested = t->rows->len > 0;
+    }
   /* The readings' meaning, where there are readings. */
   if (t->rows->len > 0)
-    t->note = gauges_note (wo);
+    t->note = gauges_note (wo, suggested);
   return t;
 }
 

@@ -563,6 +563,54 @@ START_TEST (test_cycle_missing)
 }
 END_TEST
 
+/* A layout with no gauges gets suggested ones: at the pump's outlet and
+ * at the inlet of the applicator lowest while firing (N4 on the starved
+ * line, the far end), each with the solver's readings there, and a full
+ * scale of the smallest standard range the design check accepts: 70 bar
+ * (the highest reading) x 1.5 (the scenario's gauge factor) = 105 bar ->
+ * 160 bar in the 1, 1.6, 2.5, 4, 6 series of EN 837-1 (from memory). */
+START_TEST (test_suggested_gauges)
+{
+  static const struct { const char *part, *port, *place; } points[] = {
+    { "P1", "out", "P1 Outlet" }, { "N4", "in", "N4 Inlet" },
+  };
+  g_autofree char *path = sample_path ("carton-sealer-starved.pline");
+  g_autoptr (PlDocument) doc = pl_layout_read_file (path, NULL);
+  g_autoptr (PlResults) results = pl_solve_scheduler_solve_sync (doc, NULL, NULL);
+  g_autoptr (PlWorkOrder) wo = NULL;
+  g_autofree char *text = NULL;
+  PlWorkOrderOptions opts;
+
+  ck_assert_ptr_nonnull (results);
+  ck_assert_ptr_nonnull (pl_results_get_cycle (results));
+  pl_work_order_options_init (&opts);
+  wo = pl_work_order_new (doc, results, &opts);
+  text = pl_work_order_get_sheet_text (wo, 1);
+  for (guint i = 0; i < G_N_ELEMENTS (points); i++)
+    {
+      const PlPart *part = pl_document_find_part_by_tag (doc, points[i].part);
+      double idle, low;
+      g_autofree char *idle_text = NULL, *low_text = NULL, *row = NULL;
+
+      ck_assert_ptr_nonnull (part);
+      ck_assert (pl_results_get_port_pressure (results, pl_part_get_id (part), points[i].port,
+                                               PL_PRESSURE_IDLE, &idle));
+      ck_assert (pl_results_get_port_pressure (results, pl_part_get_id (part), points[i].port,
+                                               PL_PRESSURE_CYCLE_MIN, &low));
+      idle_text = pl_unit_format (idle, PL_QUANTITY_PRESSURE, NULL, 4,
+                                  PL_UNIT_DECIMAL_FROM_LOCALE);
+      low_text = pl_unit_format (low, PL_QUANTITY_PRESSURE, NULL, 4,
+                                 PL_UNIT_DECIMAL_FROM_LOCALE);
+      row = g_strdup_printf ("new | %s | 160 bar | %s | %s |", points[i].place, idle_text,
+                             low_text);
+      ck_assert_msg (strstr (text, row) != NULL, "no row “%s” in:\n%s", row, text);
+    }
+  /* No other applicator is suggested. */
+  ck_assert_ptr_null (strstr (text, "N1 Inlet"));
+  ck_assert_ptr_nonnull (strstr (text, "the new ones are suggested"));
+}
+END_TEST
+
 /* --- the command line --- */
 
 typedef struct
@@ -659,6 +707,7 @@ work_order_suite (void)
   tcase_add_loop_test (tf, test_svg_sheets, 0, G_N_ELEMENTS (layouts));
   tcase_add_test (tf, test_table_continues);
   tcase_add_test (tf, test_cycle_missing);
+  tcase_add_test (tf, test_suggested_gauges);
   suite_add_tcase (s, tf);
 
   tcase_add_checked_fixture (tp, pl_tmpdir_setup, pl_tmpdir_teardown);
