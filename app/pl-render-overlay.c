@@ -341,26 +341,25 @@ dose_block_size (PlRenderCtx *ctx, const char *text, double dev, double *width,
     }
 }
 
-/* Draws the block at (x, y0), its top left corner. */
+/* Draws the block in box, the size dose_block_size gave. */
 static void
-dose_bar (PlRenderCtx *ctx, const PlPart *part, double x, double y0)
+dose_bar (PlRenderCtx *ctx, const PlPart *part, const PlRect *box)
 {
   const double height = DOSE_BAR_HEIGHT_MM, mean_at = DOSE_MEAN_AT_MM;
-  double dev, bw, bh, w, h, y;
+  double dev, size = pl_render_text_size (ctx, PL_RENDER_VALUE_MM), w, h, x = box->x0, y;
   g_autofree char *text = dose_text (ctx, part, &dev);
   const PlColor *color;
 
   if (text == NULL)
     return;
-  dose_block_size (ctx, text, dev, &bw, &bh, &w, &h);
   if (ctx->opts->show_dose_details)
     {
       /* The bar centred over its figures. */
-      x += 0.5 * (bw - DOSE_BAR_MM);
-      y = y0 + 0.8;
+      x += 0.5 * (box->x1 - box->x0 - DOSE_BAR_MM);
+      y = box->y0 + 0.8;
     }
   else
-    y = y0 + 0.5 * (bh - height);
+    y = 0.5 * (box->y0 + box->y1 - height);
   color = fabs (dev) <= ctx->uniformity ? &ctx->pal->dose_ok : &ctx->pal->dose_bad;
   cairo_rectangle (ctx->cr, x, y, CLAMP (mean_at * (1.0 + dev), 0.0, DOSE_BAR_MM), height);
   pl_render_set_color (ctx, color);
@@ -373,13 +372,11 @@ dose_bar (PlRenderCtx *ctx, const PlPart *part, double x, double y0)
   cairo_line_to (ctx->cr, x + mean_at, y + height + 0.8);
   cairo_set_line_width (ctx->cr, pl_render_line_width (ctx, 0.5));
   cairo_stroke (ctx->cr);
-  if (h == 0.0)
+  if (size == 0.0)
     return;
-  pl_render_layout_text (ctx, text, pl_render_text_size (ctx, PL_RENDER_VALUE_MM),
-                         fabs (dev) > ctx->uniformity, &w, &h);
+  pl_render_layout_text (ctx, text, size, fabs (dev) > ctx->uniformity, &w, &h);
   if (ctx->opts->show_dose_details)
-    pl_render_show_layout (ctx, x + 0.5 * (DOSE_BAR_MM - bw), y + height + 0.8 + DOSE_TEXT_GAP_MM,
-                           &ctx->pal->text);
+    pl_render_show_layout (ctx, box->x0, y + height + 0.8 + DOSE_TEXT_GAP_MM, &ctx->pal->text);
   else
     pl_render_show_layout (ctx, x + DOSE_BAR_MM + 1.0, y + 0.5 * height - 0.5 * h,
                            &ctx->pal->text);
@@ -437,23 +434,21 @@ pl_render_part_overlay_size (PlRenderCtx *ctx, const PlPart *part, double *width
 }
 
 void
-pl_render_part_overlay (PlRenderCtx *ctx, const PlPart *part, const PlRect *area)
+pl_render_part_overlay (PlRenderCtx *ctx, const PlPart *part, const PlRect *box)
 {
   const PlPartType *type = pl_part_get_part_type (part);
-  double cx = 0.5 * (area->x0 + area->x1), w, h;
 
   if (ctx->results == NULL)
     return;
-  pl_render_part_overlay_size (ctx, part, &w, &h);
   if (type->kind == PL_PART_GAUGE)
     {
       g_autofree char *text = gauge_text (ctx, part);
 
       if (text != NULL)
-        boxed_text (ctx, text, cx - 0.5 * w, area->y0, TRUE, NULL);
+        boxed_text (ctx, text, box->x0, box->y0, TRUE, NULL);
     }
-  else if (type->kind == PL_PART_APPLICATOR && w > 0.0)
-    dose_bar (ctx, part, cx - 0.5 * w, area->y0);
+  else if (type->kind == PL_PART_APPLICATOR)
+    dose_bar (ctx, part, box);
 }
 
 /* Where a pressure label may go around its port, nearest first: the four

@@ -110,13 +110,11 @@ void pl_render_flow_mark (PlRenderCtx *ctx, PlPoint p, double dx, double dy, dou
 void pl_render_flow_mark_path (PlRenderCtx *ctx, PlPoint p, double dx, double dy,
                                double size);
 void pl_render_flow_mark_flush (PlRenderCtx *ctx);
-/* A part's result rows (a gauge's reading, an applicator's dose bar),
- * stacked on from its label block (world frame) on the label's side. */
-/* The gauge reading or dose bar of a part, drawn at the top of area,
- * centred; its size (0 x 0: none). */
+/* The gauge reading or dose bar of a part: its size (0 x 0: none), and
+ * drawing it in box, a box of that size (world frame). */
 void pl_render_part_overlay_size (PlRenderCtx *ctx, const PlPart *part, double *width,
                                   double *height);
-void pl_render_part_overlay (PlRenderCtx *ctx, const PlPart *part, const PlRect *area);
+void pl_render_part_overlay (PlRenderCtx *ctx, const PlPart *part, const PlRect *box);
 void pl_render_pressure_label (PlRenderCtx *ctx, PlPoint anchor, const char *part_id,
                                const char *port_key);
 void pl_render_stale_badge (PlRenderCtx *ctx);

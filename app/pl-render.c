@@ -563,9 +563,11 @@ draw_part_labels (PlRenderCtx *ctx, const PlPart *part, const PlRect *box)
   }
   if (oh > 0.0)
     {
-      PlRect area = { block.x0, block.y0 + th + vh + 1.0, block.x1, block.y1 };
+      /* Under the tag and value, centred in the block. */
+      double cx = 0.5 * (block.x0 + block.x1), y = block.y0 + th + vh + 1.0;
+      PlRect overlay = { cx - 0.5 * ow, y, cx + 0.5 * ow, y + oh };
 
-      pl_render_part_overlay (ctx, part, &area);
+      pl_render_part_overlay (ctx, part, &overlay);
     }
 }
 
