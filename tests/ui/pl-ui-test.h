@@ -98,21 +98,34 @@ pl_ui_test_open_window (PlApplication *app, const char *path)
   return window;
 }
 
-/* What a widget shows, rendered by its own renderer. */
+/* What a widget shows, rendered by its own renderer.  A widget waiting
+ * for a new layout (results just arrived, a label grew) has no picture
+ * until the next frame lays it out: wait for that frame, 10 s at most. */
 static inline GdkTexture *
 pl_ui_test_render_widget (GtkWidget *widget)
 {
-  int w = gtk_widget_get_width (widget), h = gtk_widget_get_height (widget);
-  g_autoptr (GdkPaintable) paintable = gtk_widget_paintable_new (widget);
-  GtkSnapshot *snapshot = gtk_snapshot_new ();
-  GskRenderNode *node;
   GskRenderer *renderer = gtk_native_get_renderer (gtk_widget_get_native (widget));
+  GskRenderNode *node = NULL;
   GdkTexture *texture;
+  int w = 0, h = 0;
 
-  ck_assert_int_gt (w, 0);
-  gdk_paintable_snapshot (paintable, snapshot, w, h);
-  node = gtk_snapshot_free_to_node (snapshot);
-  ck_assert_ptr_nonnull (node);
+  for (int attempt = 0; attempt < 1000 && node == NULL; attempt++)
+    {
+      g_autoptr (GdkPaintable) paintable = NULL;
+      GtkSnapshot *snapshot;
+
+      if (attempt > 0)
+        pl_ui_test_spin (10);
+      w = gtk_widget_get_width (widget);
+      h = gtk_widget_get_height (widget);
+      if (w <= 0 || h <= 0)
+        continue;
+      paintable = gtk_widget_paintable_new (widget);
+      snapshot = gtk_snapshot_new ();
+      gdk_paintable_snapshot (paintable, snapshot, w, h);
+      node = gtk_snapshot_free_to_node (snapshot);
+    }
+  ck_assert_msg (node != NULL, "the widget drew nothing within 10 s (%d x %d)", w, h);
   texture = gsk_renderer_render_texture (renderer, node, &GRAPHENE_RECT_INIT (0, 0, w, h));
   gsk_render_node_unref (node);
   return texture;

@@ -18,6 +18,7 @@
 #include "pl-layout-reader.h"
 #include "pl-param-row.h"
 #include "pl-solve-scheduler.h"
+#include "pl-ui-test.h"
 
 static PlDocument *doc;
 static PlUndoStack *undo;
@@ -77,35 +78,13 @@ select_and_get_row (const char *id, const char *key)
   return PL_PARAM_ROW (row);
 }
 
-/* Saves the window as PNG under the build dir, rendered by the window's own
- * GSK renderer, for people to look at. */
+/* The window as BUILD/tests/ui/screenshots/NAME.png, for people to look at. */
 static void
 save_screenshot (const char *name)
 {
-  g_autoptr (GdkPaintable) paintable = gtk_widget_paintable_new (window);
-  GtkSnapshot *snapshot = gtk_snapshot_new ();
-  GskRenderNode *node;
-  int w = gtk_widget_get_width (window), h = gtk_widget_get_height (window);
-  g_autofree char *dir = g_build_filename (g_getenv ("PRESSLINE_BUILD_ROOT"), "tests", "ui",
-                                           "screenshots", NULL);
-  g_autofree char *file = NULL;
+  g_autofree char *file = g_strdup_printf ("%s.png", name);
 
-  for (int i = 0; i < 20; i++)
-    g_main_context_iteration (NULL, FALSE);
-  gdk_paintable_snapshot (paintable, snapshot, w, h);
-  node = gtk_snapshot_free_to_node (snapshot);
-  if (node == NULL)
-    return;
-  {
-    GskRenderer *renderer = gtk_native_get_renderer (GTK_NATIVE (window));
-    g_autoptr (GdkTexture) texture =
-      gsk_renderer_render_texture (renderer, node, &GRAPHENE_RECT_INIT (0, 0, w, h));
-
-    g_mkdir_with_parents (dir, 0755);
-    file = g_strdup_printf ("%s/%s.png", dir, name);
-    ck_assert (gdk_texture_save_to_png (texture, file));
-  }
-  gsk_render_node_unref (node);
+  pl_ui_test_save_shot (GTK_WIDGET (window), file);
 }
 
 /* 1 in = 0.0254 m exactly (NIST SP 811, B.9), so 1/2 in = 0.0127 m; the

@@ -20,6 +20,7 @@
 #include "pl-plot.h"
 #include "pl-results-panel.h"
 #include "pl-solve-scheduler.h"
+#include "pl-ui-test.h"
 #include "pl-undo-stack.h"
 
 static const char *const samples[] = {
@@ -70,34 +71,13 @@ close_sample (void)
   g_clear_object (&doc);
 }
 
+/* The window as BUILD/tests/ui/screenshots/NAME.png, for people to look at. */
 static void
 save_screenshot (const char *name)
 {
-  g_autoptr (GdkPaintable) paintable = gtk_widget_paintable_new (window);
-  GtkSnapshot *snapshot = gtk_snapshot_new ();
-  GskRenderNode *node;
-  int w, h;
-  g_autofree char *dir = g_build_filename (g_getenv ("PRESSLINE_BUILD_ROOT"), "tests", "ui",
-                                           "screenshots", NULL);
+  g_autofree char *file = g_strdup_printf ("%s.png", name);
 
-  for (int i = 0; i < 30; i++)
-    g_main_context_iteration (NULL, FALSE);
-  w = gtk_widget_get_width (window);
-  h = gtk_widget_get_height (window);
-  gdk_paintable_snapshot (paintable, snapshot, w, h);
-  node = gtk_snapshot_free_to_node (snapshot);
-  if (node == NULL)
-    return;
-  {
-    GskRenderer *renderer = gtk_native_get_renderer (GTK_NATIVE (window));
-    g_autoptr (GdkTexture) texture =
-      gsk_renderer_render_texture (renderer, node, &GRAPHENE_RECT_INIT (0, 0, w, h));
-    g_autofree char *file = g_strdup_printf ("%s/%s.png", dir, name);
-
-    g_mkdir_with_parents (dir, 0755);
-    ck_assert (gdk_texture_save_to_png (texture, file));
-  }
-  gsk_render_node_unref (node);
+  pl_ui_test_save_shot (GTK_WIDGET (window), file);
 }
 
 START_TEST (test_tables_have_a_row_per_port_and_part)
