@@ -375,25 +375,14 @@ pls_laminar_shortcut (const pls_fluid_params *f, const pls_line_params *line, do
     l->lam_qmax = 0.0;
 }
 
-/* CHOLMOD set-up: the pattern of the nodal matrix (pls__pattern, shared
- * with the steady solve) and its symbolic analysis, done once for the
- * model's life: the pattern holds every link that may carry flow in any
- * air state, so neither the air state nor the valve openings change it. */
+/* The links' matrix columns from the nodes' into the pattern's records,
+ * and the pattern (pls__pattern, shared with the steady solve). */
 static pls_status
-pls_model_matrix (pls__model *m, pls_error *err)
+pls_model_pattern (pls__model *m)
 {
   pls_work *w = &m->w;
-  const pls_allocator *prev;
-  pls_status st = PLS_OK;
   size_t k;
 
-  w->net = m->net;
-  w->alloc = m->alloc;
-  w->m = m->n_links;
-  w->nf = m->nf;
-  w->links = pls__calloc (m->alloc, m->n_links + 1, sizeof *w->links);
-  if (w->links == NULL)
-    return pls__error (err, PLS_ERR_NOMEM, -1, -1, "out of memory building the model");
   for (k = 0; k < m->n_links; k++)
     {
       const pls__tlink *l = &m->links[k];
@@ -402,7 +391,88 @@ pls_model_matrix (pls__model *m, pls_error *err)
       w->links[k].ca = m->nodes[l->a].col;
       w->links[k].cb = l->b >= 0 ? m->nodes[l->b].col : -1;
     }
-  if (pls__pattern (w) != PLS_OK)
+  pls__free (m->alloc, w->ap);
+  pls__free (m->alloc, w->ai);
+  w->ap = NULL;
+  w->ai = NULL;
+  return pls__pattern (w);
+}
+
+/* The nodal matrix as CHOLMOD's upper triangle on the pattern, values 0. */
+static cholmod_sparse *
+pls_model_sparse (pls__model *m)
+{
+  cholmod_sparse *A = cholmod_allocate_sparse (m->nf, m->nf, m->w.nnz, 1, 1, 1,
+                                               CHOLMOD_REAL, &m->c);
+
+  if (A != NULL)
+    {
+      memcpy (A->p, m->w.ap, (m->nf + 1) * sizeof (int));
+      memcpy (A->i, m->w.ai, m->w.nnz * sizeof (int));
+      memset (A->x, 0, m->w.nnz * sizeof (double));
+    }
+  return A;
+}
+
+/* Renumbers the free nodes' matrix columns in the fill-reducing order of
+ * AMD (cholmod_amd) on the pattern in node order, so that the factor is
+ * analysed with the natural ordering: cholmod_factorize then factors the
+ * stored upper triangle in place instead of building the permuted matrix
+ * by two transposes at every factorisation (CHOLMOD 3,
+ * Cholesky/cholmod_factorize.c, as pls-workspace.c explains for the
+ * steady side), and cholmod_solve2 has no permutation to apply. */
+static pls_status
+pls_model_renumber (pls__model *m)
+{
+  const pls_allocator *a = m->alloc;
+  cholmod_sparse *A0 = pls_model_sparse (m);
+  int *perm = pls__malloc (a, (m->nf + 1) * sizeof *perm);
+  int *old = pls__malloc (a, (m->nf + 1) * sizeof *old);
+  pls_status st = PLS_ERR_NOMEM;
+  size_t j;
+
+  if (A0 == NULL || perm == NULL || old == NULL)
+    goto out;
+  if (!cholmod_amd (A0, NULL, 0, perm, &m->c))
+    {
+      st = PLS_ERR_LINALG;
+      goto out;
+    }
+  /* perm[j]: the old column that becomes column j. */
+  memcpy (old, m->col_node, m->nf * sizeof *old);
+  for (j = 0; j < m->nf; j++)
+    {
+      int node = old[perm[j]];
+
+      m->col_node[j] = node;
+      m->nodes[node].col = (int) j;
+    }
+  st = pls_model_pattern (m) == PLS_OK ? PLS_OK : PLS_ERR_NOMEM;
+
+out:
+  cholmod_free_sparse (&A0, &m->c);
+  pls__free (a, perm);
+  pls__free (a, old);
+  return st;
+}
+
+/* CHOLMOD set-up: the pattern of the nodal matrix in the renumbered
+ * columns and its symbolic analysis, done once for the model's life: the
+ * pattern holds every link that may carry flow in any air state, so
+ * neither the air state nor the valve openings change it. */
+static pls_status
+pls_model_matrix (pls__model *m, pls_error *err)
+{
+  pls_work *w = &m->w;
+  const pls_allocator *prev;
+  pls_status st = PLS_OK;
+
+  w->net = m->net;
+  w->alloc = m->alloc;
+  w->m = m->n_links;
+  w->nf = m->nf;
+  w->links = pls__calloc (m->alloc, m->n_links + 1, sizeof *w->links);
+  if (w->links == NULL || pls_model_pattern (m) != PLS_OK)
     return pls__error (err, PLS_ERR_NOMEM, -1, -1, "out of memory building the model");
   if (m->nf == 0)
     return PLS_OK;
@@ -411,23 +481,26 @@ pls_model_matrix (pls__model *m, pls_error *err)
   cholmod_start (&m->c);
   m->c_started = 1;
   m->c.print = 0;
-  m->c.nmethods = 1;
-  m->c.method[0].ordering = CHOLMOD_AMD;
-  m->c.postorder = 1;
   m->c.supernodal = CHOLMOD_SIMPLICIAL;   /* line ladders fill little */
-  m->A = cholmod_allocate_sparse (m->nf, m->nf, w->nnz, 1, 1, 1, CHOLMOD_REAL, &m->c);
-  if (m->A != NULL)
+  st = pls_model_renumber (m);
+  if (st == PLS_OK)
     {
-      memcpy (m->A->p, w->ap, (m->nf + 1) * sizeof (int));
-      memcpy (m->A->i, w->ai, w->nnz * sizeof (int));
-      memset (m->A->x, 0, w->nnz * sizeof (double));
-      m->L = cholmod_analyze (m->A, &m->c);
+      m->c.nmethods = 1;
+      m->c.method[0].ordering = CHOLMOD_NATURAL;
+      m->c.postorder = 0;
+      m->A = pls_model_sparse (m);
+      if (m->A != NULL)
+        m->L = cholmod_analyze (m->A, &m->c);
+      if (m->L != NULL)
+        m->B = cholmod_zeros (m->nf, 1, CHOLMOD_REAL, &m->c);
+      if (m->A == NULL || m->L == NULL || m->B == NULL)
+        st = m->c.status == CHOLMOD_OUT_OF_MEMORY ? PLS_ERR_NOMEM : PLS_ERR_LINALG;
+      else if (m->L->ordering != CHOLMOD_NATURAL)
+        st = PLS_ERR_LINALG;   /* would bring the transposes back; never seen */
     }
-  if (m->L != NULL)
-    m->B = cholmod_zeros (m->nf, 1, CHOLMOD_REAL, &m->c);
-  if (m->A == NULL || m->L == NULL || m->B == NULL)
-    st = pls__error (err, m->c.status == CHOLMOD_OUT_OF_MEMORY ? PLS_ERR_NOMEM
-                     : PLS_ERR_LINALG, -1, -1,
+  if (st != PLS_OK)
+    st = pls__error (err, st == PLS_ERR_NOMEM || m->c.status == CHOLMOD_OUT_OF_MEMORY
+                     ? PLS_ERR_NOMEM : PLS_ERR_LINALG, -1, -1,
                      "the sparse analysis of the time-domain model failed "
                      "(CHOLMOD status %d)", m->c.status);
   pls__cholmod_leave (prev);

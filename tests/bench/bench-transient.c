@@ -221,20 +221,39 @@ bench_gsl (void)
   pls_network_free (l.net);
 }
 
+/* Usage: bench-transient [N ...]: without arguments the typical layout,
+ * manifolds of 10, 100 and 1000 applicators and the GSL comparison; with
+ * arguments only manifolds of those sizes (for side-by-side timing of one
+ * size against another build). */
 int
-main (void)
+main (int argc, char **argv)
 {
-  const int sizes[] = { 10, 100, 1000 };
-  size_t i;
+  int sizes[16] = { 8, 10, 100, 1000 };
+  size_t i, n_sizes = 4;
 
   pls_route_cholmod_allocations ();
   printf ("Firing cycle to periodic state and shutdown (default options: 2 shots/s, 50 ms "
           "on,\n2 ms ramps, rtol 1e-3); peak memory through the network's allocator.\n\n");
   printf ("%-9s %5s %6s %9s %8s %7s %8s %8s %9s %9s %9s\n", "run", "apps", "parts", "wall ms",
           "cpu ms", "cycles", "steps", "rejected", "newton", "factor", "peak MiB");
-  for (i = 0; i < sizeof sizes / sizeof sizes[0] + 1; i++)
+  if (argc > 1)
     {
-      int n = i == 0 ? 8 : sizes[i - 1];
+      n_sizes = 0;
+      for (i = 1; i < (size_t) argc && n_sizes < sizeof sizes / sizeof sizes[0]; i++)
+        {
+          int n = atoi (argv[i]);
+
+          if (n < 1)
+            {
+              fprintf (stderr, "bench-transient: not an applicator count: %s\n", argv[i]);
+              return 2;
+            }
+          sizes[n_sizes++] = n;
+        }
+    }
+  for (i = 0; i < n_sizes; i++)
+    {
+      int n = sizes[i];
       counter cnt = { 0, 0 };
       pls_allocator alloc = { c_malloc, c_calloc, c_realloc, c_free, &cnt };
       pls_test_layout l = pls_test_layout_new_with (n, 0, 10e-3, &alloc);
@@ -273,7 +292,7 @@ main (void)
       pls_shutdown_result_stats (sr, &st);
       row ("shutdown", n, parts, 1e3 * t_shut, 1e3 * c_shut, &st, 0, cnt.peak);
       pls_shutdown_result_free (sr);
-      if (i == 0)
+      if (n == 8)
         printf ("  typical layout (%zu parts): cycle + shutdown %.1f ms, cpu %.1f ms "
                 "(target < 50 ms)\n", parts, 1e3 * (t_cycle + t_shut),
                 1e3 * (c_cycle + c_shut));
@@ -282,6 +301,7 @@ main (void)
                 t_cycle + t_shut, c_cycle + c_shut);
       pls_network_free (l.net);
     }
-  bench_gsl ();
+  if (argc <= 1)
+    bench_gsl ();
   return 0;
 }
