@@ -73,6 +73,28 @@ pls_delta_p (const pls__model *m, const pls__tlink *l, const double *p)
   return pa - pb;
 }
 
+/* Law of an element link (pls__element_drop, with the fluid's Carreau
+ * form where a law takes the fluid through its viscosity). */
+static void
+pls_element_law (const pls__model *m, const pls_element *e, double q, pls_drop *d)
+{
+  switch (e->kind)
+    {
+    case PLS_ELEMENT_FITTING:
+      pls_fitting_drop (&m->fluid_c, &e->u.fitting, q, d);
+      break;
+    case PLS_ELEMENT_VALVE:
+      pls_valve_drop (&m->fluid_c, &e->u.valve, q, d);
+      break;
+    case PLS_ELEMENT_NOZZLE:
+      pls_nozzle_drop (&m->fluid_c, &e->u.nozzle, q, d);
+      break;
+    default:
+      pls__element_drop (m->net, e, m->air_pressure, q, d);
+      break;
+    }
+}
+
 /* Law of link k at flow q. */
 void
 pls__link_law (const pls__model *m, size_t k, double q, pls_drop *d)
@@ -124,13 +146,13 @@ pls__link_law (const pls__model *m, size_t k, double q, pls_drop *d)
          * h_s(q) = h_open(q / s). */
         double s = m->open[l->app];
 
-        pls__element_drop (m->net, e, m->air_pressure, q / s, d);
+        pls_element_law (m, e, q / s, d);
         d->dh_dq /= s;
       }
       break;
     case PLS__LINK_ELEMENT:
     default:
-      pls__element_drop (m->net, e, m->air_pressure, q, d);
+      pls_element_law (m, e, q, d);
       break;
     }
 }
@@ -315,6 +337,7 @@ pls_stage (pls__model *m, double kappa, int *converged, pls_error *err)
   const pls__tolerances *tol = &m->tol;
   const double inv_kappa = 1.0 / kappa;
   double prev = INFINITY, prev_fresh = INFINITY, pscale = 0.0, qscale = 0.0;
+  double inv_pfloor, inv_qfloor;
   pls_status st;
   size_t k, i;
   int it, slow = 0;
@@ -328,6 +351,14 @@ pls_stage (pls__model *m, double kappa, int *converged, pls_error *err)
   if (tol->p_scale_global)
     for (i = 0; i < m->nf; i++)
       pscale = PLS_MAX (pscale, fabs (m->p[m->col_node[i]]));
+  for (k = 0; k < m->n_links; k++)
+    m->on[k] = (unsigned char) pls_link_on (m, k);
+  /* Every update's scale below is at least the scale of pscale or qscale
+   * alone: an update whose ratio to that, a little inflated to cover
+   * rounding, does not exceed the worst so far cannot raise it, and needs
+   * no division. */
+  inv_pfloor = (1.0 + 1e-12) / (tol->atol_p + tol->rtol * pscale);
+  inv_qfloor = (1.0 + 1e-12) / (tol->atol_q + tol->rtol * qscale);
   for (it = 0; it < PLS_NEWTON_MAX; it++)
     {
       double worst = 0.0;
@@ -343,7 +374,7 @@ pls_stage (pls__model *m, double kappa, int *converged, pls_error *err)
 
           m->rl[k] = 0.0;
           m->dh[k] = 0.0;   /* the law's slope, 0 for a link that is off */
-          if (!pls_link_on (m, k))
+          if (!m->on[k])
             {
               m->q[k] = 0.0;
               if (m->g[k] != 0.0)
@@ -408,11 +439,15 @@ pls_stage (pls__model *m, double kappa, int *converged, pls_error *err)
       for (i = 0; i < m->nf; i++)
         {
           int n = m->col_node[i];
-          double s = fabs (m->dp[n])
-                     / (tol->atol_p + tol->rtol * PLS_MAX (pscale, fabs (m->p[n])));
 
+          if (fabs (m->dp[n]) * inv_pfloor > worst)
+            {
+              double s = fabs (m->dp[n])
+                         / (tol->atol_p + tol->rtol * PLS_MAX (pscale, fabs (m->p[n])));
+
+              worst = s > worst ? s : worst;
+            }
           m->p[n] += m->dp[n];
-          worst = s > worst ? s : worst;
         }
       for (k = 0; k < m->n_links; k++)
         {
@@ -437,9 +472,13 @@ pls_stage (pls__model *m, double kappa, int *converged, pls_error *err)
                 return st;
               m->dq[k] = q - m->q[k];
             }
-          s = fabs (m->dq[k]) / (tol->atol_q + tol->rtol * PLS_MAX (qscale, fabs (m->q[k])));
+          if (fabs (m->dq[k]) * inv_qfloor > worst)
+            {
+              s = fabs (m->dq[k])
+                  / (tol->atol_q + tol->rtol * PLS_MAX (qscale, fabs (m->q[k])));
+              worst = s > worst ? s : worst;
+            }
           m->q[k] += m->dq[k];
-          worst = s > worst ? s : worst;
         }
       if (!isfinite (worst))
         return PLS_OK;   /* not converged: the caller cuts the step */

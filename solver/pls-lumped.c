@@ -224,7 +224,8 @@ pls_model_alloc (pls__model *m)
   m->active = pls__calloc (a, l, 1);
   m->shut = pls__calloc (a, l + 1, 1);
   m->algebraic = pls__calloc (a, l + 1, 1);
-  if (!m->shut || !m->algebraic || !m->nodes || !m->links || !m->segments || !m->chamber
+  m->on = pls__calloc (a, l + 1, 1);
+  if (!m->on || !m->shut || !m->algebraic || !m->nodes || !m->links || !m->segments || !m->chamber
       || !m->elem_link || !m->app_elem || !m->app_link || !m->open || !m->col_node
       || !m->active)
     return PLS_ERR_NOMEM;
@@ -290,6 +291,7 @@ pls__model_free (pls__model *m)
   pls__free (a, m->active);
   pls__free (a, m->shut);
   pls__free (a, m->algebraic);
+  pls__free (a, m->on);
   pls__free (a, m);
 }
 
@@ -523,6 +525,7 @@ pls__model_new (const pls_network *net, const pls__model_options *o, pls__model 
   m->net = net;
   m->alloc = a;
   m->rho_g = net->fluid.density * PLS_GRAVITY;
+  pls_fluid_carreau_form (&net->fluid, &m->fluid_c);
   m->n_net_nodes = net->n_nodes;
 
   /* Count model nodes and links. */

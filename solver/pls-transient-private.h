@@ -33,18 +33,19 @@ typedef enum
 
 typedef struct
 {
-  pls__link_kind kind;
-  int elem;           /* network element                                    */
+  /* What the Newton loop reads for every link first, in one cache line. */
   int a, b;           /* model nodes; b = -1: atmosphere at a's elevation   */
   double inertance;   /* Pa s^2/m^3; 0 for algebraic links                   */
-  double scale;       /* segment: fraction of the line's length, else 1     */
-  int app;            /* applicator index (nozzles), else -1                */
-  pls_line_params neck; /* the neck as a rigid pipe (NECK links)            */
   /* Laminar Newtonian shortcut (SEGMENT and NECK links of a Newtonian
    * fluid): below lam_qmax the law is Hagen-Poiseuille, h = lam_r q, the
    * branch pls_line_drop takes there; lam_qmax = 0: always the full law. */
   double lam_r;       /* Pa s/m^3                                           */
   double lam_qmax;    /* m^3/s                                              */
+  pls__link_kind kind;
+  int elem;           /* network element                                    */
+  double scale;       /* segment: fraction of the line's length, else 1     */
+  int app;            /* applicator index (nozzles), else -1                */
+  pls_line_params neck; /* the neck as a rigid pipe (NECK links)            */
   /* Laminar power-law shortcut (SEGMENT and NECK links of a power-law
    * fluid): the closed form of pls_line_drop, operation for operation,
    * with its flow-independent factors computed once; pl_on = 0: always
@@ -114,6 +115,11 @@ struct pls__model
   const pls_network *net;
   const pls_allocator *alloc;
   double rho_g;            /* rho g, Pa/m                                   */
+  /* The fluid in its Carreau form (pls_fluid_carreau_form), for the laws
+   * of fittings, valves and applicators: the same values without the
+   * conversion (a pow for a power law) at every call.  Lines keep the
+   * fluid as given: their power law has a closed form of its own. */
+  pls_fluid_params fluid_c;
   size_t n_net_nodes;      /* model nodes 0..n_net_nodes-1 are the network's */
   size_t n_nodes;
   pls__tnode *nodes;       /* n_nodes                                       */
@@ -135,6 +141,9 @@ struct pls__model
                                Newton loop, which streams through links) */
   unsigned char *shut;     /* n_links: an accumulator neck whose bladder has
                               shut the port (pls-bladder.c)                 */
+  unsigned char *on;       /* n_links: the link carries flow in the stage
+                              being solved (pls_link_on, taken once a stage:
+                              nothing inside a stage changes it)           */
   double *open;            /* n_app: valve opening s in [0, 1] now          */
 
   /* State: pressures of every model node (fixed ones hold theirs) and
