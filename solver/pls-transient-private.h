@@ -182,6 +182,9 @@ struct pls__model
 
   int stop;                      /* set by a step callback: end the run    */
   int fact_valid;                /* the factor in L matches g, ev, kappa   */
+  double newton_rate;            /* contraction rate measured by the last
+                                    stage that took two updates or more in
+                                    this run (pls_stage), 0: none yet      */
   double fact_kappa;             /* kappa of that factor                   */
 
   /* Statistics */
