@@ -37,6 +37,7 @@
 
 #include "config.h"
 
+#include <float.h>
 #include <math.h>
 #include <string.h>
 
@@ -1121,6 +1122,11 @@ pls_algebraic_flow (const pls__model *m, size_t k, double dp, double *q, pls_err
       double nx;
 
       pls__link_law (m, k, x, &d);
+      /* Solved to rounding: the drop meets dp within a few units in the
+       * last place (near zero flow the bracket would otherwise be halved
+       * on for dozens of steps, every one of them a root as good as x). */
+      if (fabs (d.h - dp) <= 4.0 * DBL_EPSILON * fabs (dp))
+        break;
       if (d.h > dp)
         hi = x;
       else
