@@ -80,10 +80,8 @@
 static double
 pls_delta_p (const pls__model *m, const pls__tlink *l, const double *p)
 {
-  const pls__tnode *na = &m->nodes[l->a];
-  double pa = p[l->a] + m->rho_g * na->elevation;
-  double pb = l->b >= 0 ? p[l->b] + m->rho_g * m->nodes[l->b].elevation
-                        : m->rho_g * na->elevation;
+  double pa = p[l->a] + m->head[l->a];
+  double pb = l->b >= 0 ? p[l->b] + m->head[l->b] : m->head[l->a];
 
   return pa - pb;
 }
@@ -299,7 +297,8 @@ pls_linear_solve (pls__model *m, pls_error *err)
 {
   size_t k, j;
 
-  memset (m->dp, 0, m->n_nodes * sizeof *m->dp);
+  /* m->dp of the fixed nodes is 0 from the model's allocation on, and
+   * only the free nodes' entries are written below. */
   if (m->nf > 0)
     {
       double *b = m->B->x;

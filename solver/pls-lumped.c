@@ -231,7 +231,7 @@ pls_model_alloc (pls__model *m)
     return PLS_ERR_NOMEM;
   {
     double **nv[] = { &m->p, &m->p0, &m->pg, &m->hist_v, &m->fv0, &m->fvg, &m->fv1,
-                      &m->rn, &m->dp, &m->ev, &m->pred_p0, &m->pred_pg };
+                      &m->rn, &m->dp, &m->ev, &m->pred_p0, &m->pred_pg, &m->head };
     double **lv[] = { &m->q, &m->q0, &m->qg, &m->hist_q, &m->fq0, &m->fqg, &m->fq1,
                       &m->g, &m->rl, &m->dq, &m->eq, &m->h, &m->dh, &m->qint,
                       &m->stroke, &m->gap_end, &m->pred_q0, &m->pred_qg };
@@ -271,7 +271,7 @@ pls__model_free (pls__model *m)
   pls__work_free (&m->w);
   {
     double *v[] = { m->p, m->p0, m->pg, m->hist_v, m->fv0, m->fvg, m->fv1, m->rn, m->dp,
-                    m->ev, m->q, m->q0, m->qg, m->hist_q, m->fq0, m->fqg, m->fq1, m->g,
+                    m->ev, m->head, m->q, m->q0, m->qg, m->hist_q, m->fq0, m->fqg, m->fq1, m->g,
                     m->rl, m->dq, m->eq, m->h, m->dh, m->qint, m->stroke,
                     m->gap_end, m->pred_p0, m->pred_pg, m->pred_q0, m->pred_qg };
     size_t i;
@@ -702,6 +702,8 @@ pls__model_new (const pls_network *net, const pls__model_options *o, pls__model 
 
   for (k = 0; k < m->n_links; k++)
     m->algebraic[k] = !(m->links[k].inertance > 0.0);
+  for (i = 0; i < m->n_nodes; i++)
+    m->head[i] = m->rho_g * m->nodes[i].elevation;
   for (i = 0; i < m->n_nodes; i++)
     {
       pls__tnode *nd = &m->nodes[i];

@@ -123,6 +123,8 @@ struct pls__model
   size_t n_net_nodes;      /* model nodes 0..n_net_nodes-1 are the network's */
   size_t n_nodes;
   pls__tnode *nodes;       /* n_nodes                                       */
+  double *head;            /* n_nodes: rho g z of each node, Pa (the loops
+                              over links read it, not the node records)    */
   size_t n_links;
   pls__tlink *links;       /* n_links                                       */
   int *segments;           /* n_elements: pi-segments of each line, else 0  */
