@@ -221,7 +221,9 @@ pls_forces (const pls__model *m, const double *p, const double *q, double kappa,
       const pls__tlink *l = &m->links[k];
 
       fq[k] = 0.0;
-      if (!pls_link_on (m, k))
+      /* Right after a stage (kappa > 0) its record of the flowing links
+       * holds; a fresh start asks the links themselves. */
+      if (!(kappa > 0.0 ? m->on[k] : pls_link_on (m, k)))
         continue;
       fv[l->a] -= q[k];
       if (l->b >= 0)
