@@ -47,7 +47,7 @@ typedef struct
   int app;            /* applicator index (nozzles), else -1                */
   pls_line_params neck; /* the neck as a rigid pipe (NECK links)            */
   /* Laminar power-law shortcut (SEGMENT and NECK links of a power-law
-   * fluid): the closed form of pls_line_drop, operation for operation,
+   * fluid): the closed form of pls_line_drop (its power as exp of a log),
    * with its flow-independent factors computed once; pl_on = 0: always
    * the full law. */
   int pl_on;
