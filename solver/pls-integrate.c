@@ -296,9 +296,23 @@ pls_factor (pls__model *m, double kappa, pls_error *err)
 /* Solves the linearised stage system with node residuals m->rn (per model
  * node, flow units) and link residuals m->rl (pressure units), on the
  * factor and conductances in place: into m->dp (per model node, 0 at
- * fixed ones) and m->dq. */
+ * fixed ones) and, with link_updates, m->dq (pls_stage takes each link's
+ * update in its own pass over the links instead). */
+/* The flow update of link k from the node updates x (per matrix column,
+ * NULL when there is none), by the link's columns in the pattern's
+ * compact records: a fixed end or the atmosphere has no column and no
+ * update. */
+static inline double
+pls_link_update (const pls__model *m, const double *x, size_t k)
+{
+  const pls_link *pl = &m->w.links[k];
+  double da = pl->ca >= 0 ? x[pl->ca] : 0.0, db = pl->cb >= 0 ? x[pl->cb] : 0.0;
+
+  return m->g[k] * (da - db - m->rl[k]);
+}
+
 static pls_status
-pls_linear_solve (pls__model *m, pls_error *err)
+pls_linear_solve (pls__model *m, int link_updates, pls_error *err)
 {
   size_t k, j;
 
@@ -327,19 +341,13 @@ pls_linear_solve (pls__model *m, pls_error *err)
       for (j = 0; j < m->nf; j++)
         m->dp[m->col_node[j]] = ((double *) m->X->x)[j];
     }
-  /* By the links' matrix columns (the pattern's compact records): a fixed
-   * end or the atmosphere has no column and no update. */
-  {
-    const double *x = m->nf > 0 ? m->X->x : NULL;
+  if (link_updates)
+    {
+      const double *x = m->nf > 0 ? m->X->x : NULL;
 
-    for (k = 0; k < m->n_links; k++)
-      {
-        const pls_link *pl = &m->w.links[k];
-        double da = pl->ca >= 0 ? x[pl->ca] : 0.0, db = pl->cb >= 0 ? x[pl->cb] : 0.0;
-
-        m->dq[k] = m->g[k] * (da - db - m->rl[k]);
-      }
-  }
+      for (k = 0; k < m->n_links; k++)
+        m->dq[k] = pls_link_update (m, x, k);
+    }
   return PLS_OK;
 }
 
@@ -358,14 +366,11 @@ pls_chambers_balanced (const pls__model *m, double kappa, double pscale)
   const pls__tolerances *tol = &m->tol;
   size_t j;
 
-  for (j = 0; j < m->nf; j++)
+  for (j = 0; j < m->n_chambers; j++)
     {
-      int n = m->col_node[j], acc = m->nodes[n].acc, k;
+      int n = m->chamber_node[j], k = m->elem_link[m->nodes[n].acc];
       double slope, v, inflow = 0.0;
 
-      if (acc < 0)
-        continue;
-      k = m->elem_link[acc];
       if (k >= 0 && m->on[k])
         inflow = m->links[k].b == n ? m->q[k] : -m->q[k];
       v = pls__node_volume (m, (size_t) n, m->p[n], &slope);
@@ -412,6 +417,7 @@ pls_stage (pls__model *m, double kappa, int *converged, pls_error *err)
   for (it = 0; it < PLS_NEWTON_MAX; it++)
     {
       double worst = 0.0;
+      const double *x;
       int refactor = !m->fact_valid || m->fact_kappa != kappa || slow, off_tangent = 0;
 
       m->newton_iterations++;
@@ -483,9 +489,10 @@ pls_stage (pls__model *m, double kappa, int *converged, pls_error *err)
           m->fact_kappa = kappa;
           slow = 0;
         }
-      st = pls_linear_solve (m, err);
+      st = pls_linear_solve (m, 0, err);
       if (st != PLS_OK)
         return st;
+      x = m->nf > 0 ? m->X->x : NULL;
       for (i = 0; i < m->nf; i++)
         {
           int n = m->col_node[i];
@@ -505,6 +512,7 @@ pls_stage (pls__model *m, double kappa, int *converged, pls_error *err)
 
           if (m->g[k] == 0.0)
             continue;
+          m->dq[k] = pls_link_update (m, x, k);
           /* An algebraic link (no inertance) whose linearised update would
            * more than double its flow or turn it round is far from its law's
            * straight part: a quadratic orifice or a shear-thinning passage
@@ -678,7 +686,7 @@ pls_step (pls__model *m, const pls__schedule *s, double t, double h, int *conver
       m->rl[k] = !m->algebraic[k] && m->g[k] != 0.0
                  ? e0 * m->fq0[k] + eg * m->fqg[k] + e1 * m->fq1[k] : 0.0;
   }
-  st = pls_linear_solve (m, err);
+  st = pls_linear_solve (m, 1, err);
   if (st != PLS_OK)
     return st;
   /* The scales as the largest of their parts; a NaN anywhere makes the

@@ -216,6 +216,7 @@ pls_model_alloc (pls__model *m)
   m->links = pls__calloc (a, l, sizeof *m->links);
   m->segments = pls__calloc (a, e, sizeof *m->segments);
   m->chamber = pls__malloc (a, (e + 1) * sizeof *m->chamber);
+  m->chamber_node = pls__malloc (a, (e + 1) * sizeof *m->chamber_node);
   m->elem_link = pls__malloc (a, (e + 1) * sizeof *m->elem_link);
   m->app_elem = pls__calloc (a, m->n_app + 1, sizeof *m->app_elem);
   m->app_link = pls__calloc (a, m->n_app + 1, sizeof *m->app_link);
@@ -225,7 +226,7 @@ pls_model_alloc (pls__model *m)
   m->shut = pls__calloc (a, l + 1, 1);
   m->algebraic = pls__calloc (a, l + 1, 1);
   m->on = pls__calloc (a, l + 1, 1);
-  if (!m->on || !m->shut || !m->algebraic || !m->nodes || !m->links || !m->segments || !m->chamber
+  if (!m->chamber_node || !m->on || !m->shut || !m->algebraic || !m->nodes || !m->links || !m->segments || !m->chamber
       || !m->elem_link || !m->app_elem || !m->app_link || !m->open || !m->col_node
       || !m->active)
     return PLS_ERR_NOMEM;
@@ -283,6 +284,7 @@ pls__model_free (pls__model *m)
   pls__free (a, m->links);
   pls__free (a, m->segments);
   pls__free (a, m->chamber);
+  pls__free (a, m->chamber_node);
   pls__free (a, m->elem_link);
   pls__free (a, m->app_elem);
   pls__free (a, m->app_link);
@@ -648,6 +650,7 @@ pls__model_new (const pls_network *net, const pls__model_options *o, pls__model 
             /* The neck's own fluid volume is the chamber's linear part. */
             nd->compliance = area * ap->neck_length / net->fluid.bulk_modulus;
             m->chamber[k] = (int) node;
+            m->chamber_node[m->n_chambers++] = (int) node;
             m->elem_link[k] = (int) link;
             l->kind = PLS__LINK_NECK;
             l->elem = (int) k;

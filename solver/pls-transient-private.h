@@ -128,6 +128,8 @@ struct pls__model
   size_t n_links;
   pls__tlink *links;       /* n_links                                       */
   int *segments;           /* n_elements: pi-segments of each line, else 0  */
+  size_t n_chambers;
+  int *chamber_node;       /* n_chambers: the gas chambers' model nodes    */
   int *chamber;            /* n_elements: model node of an accumulator's gas
                               chamber, else -1                              */
   int *elem_link;          /* n_elements: first link of each element, -1    */
