@@ -223,6 +223,7 @@ static pls_status
 pls_forces (const pls__model *m, const double *p, const double *q, double kappa, double *fv,
             double *fq, pls_error *err)
 {
+  const double inv_kappa = kappa > 0.0 ? 1.0 / kappa : 0.0;
   size_t k;
 
   memset (fv, 0, m->n_nodes * sizeof *fv);
@@ -239,7 +240,7 @@ pls_forces (const pls__model *m, const double *p, const double *q, double kappa,
       if (l->b >= 0)
         fv[l->b] += q[k];
       if (l->inertance > 0.0 && kappa > 0.0)
-        fq[k] = l->inertance * (q[k] - m->hist_q[k]) / kappa;
+        fq[k] = l->inertance * (q[k] - m->hist_q[k]) * inv_kappa;
       else if (l->inertance > 0.0)
         {
           pls_drop d;
@@ -688,8 +689,10 @@ pls_step (pls__model *m, const pls__schedule *s, double t, double h, int *conver
     const double eg = 2.0 * cerr * h / (gam * (1.0 - gam) * kappa);
     const double e1 = -2.0 * cerr * h / ((1.0 - gam) * kappa);
 
+    /* (The fixed nodes' entries are never read: the solve takes the
+     * free nodes' only.) */
     for (i = 0; i < n; i++)
-      m->rn[i] = m->nodes[i].fixed ? 0.0 : e0 * m->fv0[i] + eg * m->fvg[i] + e1 * m->fv1[i];
+      m->rn[i] = e0 * m->fv0[i] + eg * m->fvg[i] + e1 * m->fv1[i];
     for (k = 0; k < l; k++)
       m->rl[k] = !m->algebraic[k] && m->g[k] != 0.0
                  ? e0 * m->fq0[k] + eg * m->fqg[k] + e1 * m->fq1[k] : 0.0;
