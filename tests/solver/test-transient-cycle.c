@@ -506,14 +506,31 @@ static const struct
   { 1.3, 0.5 },
 };
 
+/* The lumped model of a small network for the law checks: valve events
+ * of 2 ms, 13 segments a wavelength, 1 to max_segments a line, air on. */
+static pls__model *
+law_model (const pls_network *net, int max_segments)
+{
+  pls__model_options mo;
+  pls__model *m = NULL;
+  pls_error err;
+
+  memset (&mo, 0, sizeof mo);
+  mo.t_event = 2e-3;
+  mo.per_wavelength = 13.0;
+  mo.min_segments = 1;
+  mo.max_segments = max_segments;
+  mo.air_on = 1;
+  ck_assert_msg (pls__model_new (net, &mo, &m, &err) == PLS_OK, "%s", err.message);
+  return m;
+}
+
 START_TEST (test_segment_law_power_law)
 {
   pls_fluid_params f;
   pls_line_params hose = pls_test_hose (10.0, 6.35e-3);
-  pls__model_options mo;
-  pls__model *m = NULL;
+  pls__model *m;
   pls_network *net;
-  pls_error err;
   size_t k, j;
   int a, b, checked = 0;
 
@@ -526,13 +543,7 @@ START_TEST (test_segment_law_power_law)
   a = pls_network_add_fixed_node (net, 0.0, 1e6, "in", NULL);
   b = pls_network_add_fixed_node (net, 0.0, 0.0, "out", NULL);
   pls_network_add_line (net, a, b, &hose, "H1", NULL);
-  memset (&mo, 0, sizeof mo);
-  mo.t_event = 2e-3;
-  mo.per_wavelength = 13.0;
-  mo.min_segments = 1;
-  mo.max_segments = 8;
-  mo.air_on = 1;
-  ck_assert_msg (pls__model_new (net, &mo, &m, &err) == PLS_OK, "%s", err.message);
+  m = law_model (net, 8);
   for (k = 0; k < m->n_links; k++)
     {
       const pls__tlink *l = &m->links[k];
@@ -575,8 +586,7 @@ START_TEST (test_element_law_carreau_form)
   pls_fitting_params fp = { 200.0, 0.1, 6.35e-3, 0.0 };
   pls_valve_params vp = { PLS_VALVE_BALL, 2.0, 6.35e-3, 1, 0.0 };
   pls_nozzle_params np = { 0.5e-3, 1e-3, PLS_CD_LICHTAROWICZ, 0.7, 1e9, 0.0 };
-  pls__model_options mo;
-  pls__model *m = NULL;
+  pls__model *m;
   pls_network *net;
   pls_error err;
   size_t k, j;
@@ -600,13 +610,7 @@ START_TEST (test_element_law_carreau_form)
   ck_assert_int_ge (pls_network_add_nozzle (net, b, &np, "N1", &err), 0);
   np.cd_model = PLS_CD_FIXED;
   ck_assert_int_ge (pls_network_add_nozzle (net, b, &np, "N2", &err), 0);
-  memset (&mo, 0, sizeof mo);
-  mo.t_event = 2e-3;
-  mo.per_wavelength = 13.0;
-  mo.min_segments = 1;
-  mo.max_segments = 1;
-  mo.air_on = 1;
-  ck_assert_msg (pls__model_new (net, &mo, &m, &err) == PLS_OK, "%s", err.message);
+  m = law_model (net, 1);
   for (j = 0; j < m->n_app; j++)
     m->open[j] = 1.0;
   for (k = 0; k < m->n_links; k++)
