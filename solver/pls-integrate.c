@@ -71,11 +71,11 @@
  * measured in an earlier stage says the error left is small enough, and
  * that update is at most PLS_NEWTON_FIRST times the tolerance
  * (pls_stage); rates above PLS_NEWTON_RATE_FIRST are not trusted for it.
- * At 5 tolerances the shipped samples' pressures and shot masses stay
- * within 2e-5 of the full iteration's and their safe times within 2e-4,
- * a tenth of what tightening rtol from 1e-3 to 1e-4 moves them; at 20 a
- * starved line's lowest model pressure moved by 3 % (found by running
- * them). */
+ * At 5 tolerances the shipped samples' pressures and shot masses moved
+ * by 2e-5 at most and their safe times by 2e-4, a tenth of what
+ * tightening rtol from 1e-3 to 1e-4 moves them; at 20 a starved line's
+ * lowest model pressure moved by 3 %, away from its value at rtol 1e-4
+ * (found by running them). */
 #define PLS_NEWTON_RATE_FIRST 0.2
 #define PLS_NEWTON_FIRST 5.0
 /* ... and every gas chamber's volume balance holds to this fraction of
