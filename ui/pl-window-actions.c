@@ -272,16 +272,17 @@ pl_window_set_tooltip (GtkWidget *widget, const char *text)
     gtk_widget_set_tooltip_text (widget, text);
 }
 
-/* The undo and redo buttons name the step they take back or again. */
+/* The undo and redo buttons name the step they take back or again and
+ * the parts it acts on. */
 static void
 pl_window_update_undo_tooltips (PlWindow *self)
 {
-  const char *undo = pl_undo_stack_get_undo_label (self->undo);
-  const char *redo = pl_undo_stack_get_redo_label (self->undo);
-  /* Translators: a button's tooltip naming the step, "Undo Set Bore (Ctrl+Z)". */
+  g_autofree char *undo = pl_undo_stack_describe_undo (self->undo);
+  g_autofree char *redo = pl_undo_stack_describe_redo (self->undo);
+  /* Translators: a button's tooltip naming the step, "Undo Change Bore of H2 (Ctrl+Z)". */
   g_autofree char *undo_tip = undo != NULL ? g_strdup_printf (_("Undo %s (Ctrl+Z)"), undo)
                                            : g_strdup (_("Undo (Ctrl+Z)"));
-  /* Translators: a button's tooltip naming the step, "Redo Move (Shift+Ctrl+Z)". */
+  /* Translators: a button's tooltip naming the step, "Redo Move 3 Parts (Shift+Ctrl+Z)". */
   g_autofree char *redo_tip = redo != NULL
                               ? g_strdup_printf (_("Redo %s (Shift+Ctrl+Z)"), redo)
                               : g_strdup (_("Redo (Shift+Ctrl+Z)"));
