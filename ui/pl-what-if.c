@@ -9,6 +9,7 @@
 #include <glib/gi18n.h>
 #include <math.h>
 
+#include "pl-accumulator-fit.h"
 #include "pl-command.h"
 #include "pl-part-type.h"
 
@@ -59,9 +60,14 @@ struct _PlWhatIf
   GtkSwitch *acc_switch;
   GtkWidget *acc_name;
   GtkWidget *message;
+  GtkWidget *fit_note;
 
   PlDocument *doc;
   PlUndoStack *undo;
+  PlSolveScheduler *scheduler;   /* for sizing an accumulator to fit */
+  /* The precharge control's value while the layout has no accumulator:
+   * what a fitted one gets (NAN: half the idle pressure at its node). */
+  double planned_precharge;
   gulong changed_id;
   PlUnitPrefs units;
   gboolean refreshing;        /* setting sliders from the document */
@@ -148,10 +154,27 @@ show_value (PlWhatIf *self, guint c, double v)
   gtk_label_set_text (GTK_LABEL (self->values[c]), text);
 }
 
+/* An accumulator this panel could fit to a layout without one, sized for
+ * the present state with the planned precharge; FALSE when there is none
+ * (no pump, no applicator, not solved yet). */
+static gboolean
+plan_fit (PlWhatIf *self, PlAccumulatorFit *fit, GError **error)
+{
+  PlResults *fast = self->scheduler != NULL
+                    ? pl_solve_scheduler_get_fast_results (self->scheduler) : NULL;
+
+  if (self->doc == NULL)
+    return FALSE;
+  return pl_accumulator_fit_plan (self->doc, fast, self->planned_precharge, fit, error);
+}
+
 static void
 refresh (PlWhatIf *self)
 {
-  const PlPart *acc;
+  const PlPart *acc = find_target (self, TARGET_ACCUMULATOR);
+  PlAccumulatorFit fit;
+  gboolean can_fit = acc == NULL && self->before_removal == NULL
+                     && plan_fit (self, &fit, NULL);
 
   self->refreshing = TRUE;
   for (guint c = 0; c < N_CONTROLS; c++)
@@ -159,6 +182,11 @@ refresh (PlWhatIf *self)
       const PlPart *part = find_target (self, controls[c].target);
       double v = part != NULL ? pl_part_get_number (part, param_of (self, c)) : NAN;
       g_autofree char *name = NULL;
+
+      /* Without an accumulator the precharge control sets the precharge
+       * of the one the switch would fit. */
+      if (controls[c].target == TARGET_ACCUMULATOR && part == NULL && can_fit)
+        v = fit.precharge;
 
       gtk_widget_set_sensitive (GTK_WIDGET (self->scales[c]), isfinite (v));
       if (controls[c].param == NULL && part != NULL)
@@ -184,11 +212,12 @@ refresh (PlWhatIf *self)
       else
         gtk_label_set_text (GTK_LABEL (self->values[c]), "–");
     }
-  acc = find_target (self, TARGET_ACCUMULATOR);
   gtk_switch_set_active (self->acc_switch, acc != NULL);
   gtk_switch_set_state (self->acc_switch, acc != NULL);
   gtk_widget_set_sensitive (GTK_WIDGET (self->acc_switch),
-                            acc != NULL || self->before_removal != NULL);
+                            acc != NULL || self->before_removal != NULL || can_fit);
+  if (acc == NULL)
+    gtk_widget_set_visible (self->fit_note, FALSE);
   self->refreshing = FALSE;
 }
 
@@ -226,8 +255,6 @@ value_changed_cb (GtkRange *range, PlWhatIf *self)
     ;
   g_return_if_fail (c < N_CONTROLS);
   part = find_target (self, controls[c].target);
-  if (part == NULL)
-    return;
   /* Three significant digits: what the value label shows is what is set. */
   v = from_slider (c, gtk_range_get_value (range));
   {
@@ -235,6 +262,15 @@ value_changed_cb (GtkRange *range, PlWhatIf *self)
 
     v = round (v / mag) * mag;
   }
+  if (part == NULL && controls[c].target == TARGET_ACCUMULATOR)
+    {
+      /* No accumulator yet: the value waits for the switch. */
+      self->planned_precharge = v;
+      show_value (self, c, v);
+      return;
+    }
+  if (part == NULL)
+    return;
   if (v == pl_part_get_number (part, param_of (self, c)))
     return;
   merge = self->last_change[c] != 0 && now - self->last_change[c] < PL_WHAT_IF_MERGE_MS * 1000;
@@ -298,6 +334,45 @@ restore_command (PlWhatIf *self)
                                   (PlCommand *const *) cmds->pdata, cmds->len);
 }
 
+/* A layout without an accumulator gets one at the applicators' feed node,
+ * sized by the rule of pl-accumulator-fit.h; the note says what was done
+ * and by which rule (the presentation's footer carries the cautions about
+ * stored energy). */
+static void
+fit_accumulator (PlWhatIf *self)
+{
+  g_autoptr (GError) error = NULL;
+  PlAccumulatorFit fit;
+  const PlPart *feed, *acc;
+  g_autofree char *volume = NULL;
+  g_autofree char *precharge = NULL;
+  g_autofree char *note = NULL;
+
+  if (!plan_fit (self, &fit, &error))
+    {
+      say (self, error->message);
+      return;
+    }
+  feed = pl_document_find_part (self->doc, fit.part_id);
+  if (!push (self, pl_accumulator_fit_command (self->doc, &fit), FALSE))
+    return;
+  acc = find_target (self, TARGET_ACCUMULATOR);
+  volume = pl_unit_format (fit.gas_volume, PL_QUANTITY_VOLUME, &self->units, 3,
+                           PL_UNIT_DECIMAL_FROM_LOCALE);
+  precharge = pl_unit_format (fit.precharge, PL_QUANTITY_PRESSURE, &self->units, 3,
+                              PL_UNIT_DECIMAL_FROM_LOCALE);
+  note = g_strdup_printf (
+    /* Translators: the accumulator's tag, the tag of the part it is fitted
+     * at, a volume and a pressure. */
+    _("What-if: %s fitted at %s, gas volume %s, precharge %s. Sized to give one shot of "
+      "every applicator while the pressure there falls to 90 %% of idle (common practice, "
+      "no source). Undo takes it out."),
+    acc != NULL ? pl_part_get_tag (acc) : "", pl_part_get_tag (feed), volume, precharge);
+  refresh (self);
+  gtk_label_set_text (GTK_LABEL (self->fit_note), note);
+  gtk_widget_set_visible (self->fit_note, TRUE);
+}
+
 static gboolean
 acc_state_set_cb (GtkSwitch *sw, gboolean on, PlWhatIf *self)
 {
@@ -323,6 +398,12 @@ acc_state_set_cb (GtkSwitch *sw, gboolean on, PlWhatIf *self)
       if (cmd != NULL)
         push (self, cmd, FALSE);
     }
+  else if (on && acc == NULL)
+    {
+      refresh (self);
+      fit_accumulator (self);
+      return TRUE;
+    }
   refresh (self);
   return TRUE;
 }
@@ -339,6 +420,7 @@ pl_what_if_dispose (GObject *object)
   PlWhatIf *self = PL_WHAT_IF (object);
 
   pl_what_if_set_document (self, NULL, NULL);
+  g_clear_object (&self->scheduler);
   g_clear_object (&self->before_removal);
   g_clear_pointer (&self->removed_id, g_free);
   g_clear_pointer (&self->grid, gtk_widget_unparent);
@@ -369,6 +451,7 @@ pl_what_if_init (PlWhatIf *self)
   guint row = 0;
 
   pl_unit_prefs_init (&self->units, PL_UNIT_SYSTEM_SI);
+  self->planned_precharge = NAN;
   self->grid = gtk_grid_new ();
   grid = GTK_GRID (self->grid);
   gtk_grid_set_row_spacing (grid, 6);
@@ -380,6 +463,13 @@ pl_what_if_init (PlWhatIf *self)
   gtk_widget_set_halign (GTK_WIDGET (self->acc_switch), GTK_ALIGN_START);
   gtk_accessible_update_property (GTK_ACCESSIBLE (self->acc_switch),
                                   GTK_ACCESSIBLE_PROPERTY_LABEL, _("Accumulator fitted"), -1);
+  gtk_widget_set_tooltip_text (
+    GTK_WIDGET (self->acc_switch),
+    /* xgettext:no-c-format */
+    _("Off takes the accumulator out. On a layout without one, on fits one at the node that "
+      "feeds the applicators, sized to give one shot of every applicator while the pressure "
+      "there falls to 90 % of idle (common practice, no source), with the precharge set "
+      "below."));
   g_signal_connect (self->acc_switch, "state-set", G_CALLBACK (acc_state_set_cb), self);
   for (guint c = 0; c < N_CONTROLS; c++)
     {
@@ -414,7 +504,13 @@ pl_what_if_init (PlWhatIf *self)
   gtk_label_set_max_width_chars (GTK_LABEL (self->message), 40);
   gtk_widget_add_css_class (self->message, "error");
   gtk_widget_set_visible (self->message, FALSE);
-  gtk_grid_attach (grid, self->message, 0, (int) row, 3, 1);
+  gtk_grid_attach (grid, self->message, 0, (int) row++, 3, 1);
+  self->fit_note = name_label ("");
+  gtk_label_set_wrap (GTK_LABEL (self->fit_note), TRUE);
+  gtk_label_set_max_width_chars (GTK_LABEL (self->fit_note), 40);
+  gtk_widget_add_css_class (self->fit_note, "dim-label");
+  gtk_widget_set_visible (self->fit_note, FALSE);
+  gtk_grid_attach (grid, self->fit_note, 0, (int) row, 3, 1);
   refresh (self);
 }
 
@@ -438,6 +534,23 @@ pl_what_if_set_document (PlWhatIf *self, PlDocument *doc, PlUndoStack *undo)
     self->last_change[c] = 0;
   if (gtk_widget_get_parent (self->grid) != NULL)
     refresh (self);
+}
+
+void
+pl_what_if_set_scheduler (PlWhatIf *self, PlSolveScheduler *scheduler)
+{
+  g_return_if_fail (PL_IS_WHAT_IF (self));
+  g_set_object (&self->scheduler, scheduler);
+  if (gtk_widget_get_parent (self->grid) != NULL)
+    refresh (self);
+}
+
+const char *
+pl_what_if_get_fit_note (PlWhatIf *self)
+{
+  g_return_val_if_fail (PL_IS_WHAT_IF (self), "");
+  return gtk_widget_get_visible (self->fit_note) ? gtk_label_get_text (GTK_LABEL (self->fit_note))
+                                                 : "";
 }
 
 void

@@ -23,6 +23,7 @@
 
 #include <gtk/gtk.h>
 #include <math.h>
+#include <string.h>
 
 #include "pl-application.h"
 #include "pl-check.h"
@@ -266,6 +267,65 @@ START_TEST (test_accumulator_switch_and_gauge)
 }
 END_TEST
 
+/* On the starved line, which has no accumulator, the switch fits one as
+ * a what-if at the manifold's feed node with the precharge control's
+ * value, says by which rule, lifts the lowest manifold pressure of the
+ * firing cycle, and one undo takes it out again. */
+START_TEST (test_fit_accumulator_to_starved_line)
+{
+  PlWindow *window = open_sample ("carton-sealer-starved.pline");
+  PlDocument *doc = pl_window_get_document (window);
+  PlUndoStack *undo = pl_window_get_undo_stack (window);
+  PlSolveScheduler *scheduler = pl_window_get_scheduler (window);
+  PlPresentation *p = enter (window);
+  PlWhatIf *what_if = pl_presentation_get_what_if (p);
+  GtkSwitch *sw = pl_what_if_get_accumulator_switch (what_if);
+  GtkRange *precharge = pl_what_if_get_control (what_if, PL_WHAT_IF_PRECHARGE);
+  const char *feed = pl_part_get_id (pl_document_find_part_by_tag (doc, "H1"));
+  g_autoptr (PlDocument) before = pl_document_copy (doc);
+  guint n_parts = pl_document_get_n_parts (doc), n_undo = pl_undo_stack_get_n_undo (undo);
+  const PlPart *acc = NULL;
+  double min_before, min_after;
+
+  ck_assert (pl_results_get_port_pressure (pl_solve_scheduler_get_full_results (scheduler),
+                                           feed, "b", PL_PRESSURE_CYCLE_MIN, &min_before));
+  pl_ui_test_save_shot (GTK_WIDGET (p), "presentation-starved-before-fit.png");
+  ck_assert (!gtk_switch_get_active (sw));
+  ck_assert (gtk_widget_get_sensitive (GTK_WIDGET (sw)));
+  ck_assert (gtk_widget_get_sensitive (GTK_WIDGET (precharge)));
+  /* 20 bar on the precharge control, then on. */
+  gtk_range_set_value (precharge, log10 (20e5));
+  ck_assert_uint_eq (pl_undo_stack_get_n_undo (undo), n_undo);
+  gtk_switch_set_active (sw, TRUE);
+  pl_ui_test_spin (20);
+  ck_assert_uint_eq (pl_document_get_n_parts (doc), n_parts + 1);
+  ck_assert_uint_eq (pl_undo_stack_get_n_undo (undo), n_undo + 1);
+  for (guint i = 0; i < pl_document_get_n_parts (doc); i++)
+    if (pl_part_get_part_type (pl_document_get_part (doc, i))->kind == PL_PART_ACCUMULATOR)
+      acc = pl_document_get_part (doc, i);
+  ck_assert_ptr_nonnull (acc);
+  ck_assert_double_eq_tol (pl_part_get_number (acc, "precharge"), 20e5, 1e3);
+  ck_assert (gtk_switch_get_active (sw));
+  ck_assert_msg (strstr (pl_what_if_get_fit_note (what_if), "common practice, no source")
+                 != NULL, "note: %s", pl_what_if_get_fit_note (what_if));
+  pl_ui_test_wait_for_full (window);
+  ck_assert (pl_results_get_port_pressure (pl_solve_scheduler_get_full_results (scheduler),
+                                           feed, "b", PL_PRESSURE_CYCLE_MIN, &min_after));
+  ck_assert_msg (min_after > min_before, "%g Pa, was %g Pa", min_after, min_before);
+  pl_ui_test_spin (300);
+  pl_ui_test_save_shot (GTK_WIDGET (p), "presentation-starved-after-fit.png");
+  ck_assert (pl_undo_stack_undo (undo));
+  ck_assert (pl_document_equal (doc, before));
+  ck_assert (!gtk_switch_get_active (sw));
+  ck_assert_str_eq (pl_what_if_get_fit_note (what_if), "");
+  pl_ui_test_wait_for_full (window);
+  ck_assert (gtk_widget_activate_action (GTK_WIDGET (p), "presentation.leave", NULL));
+  pl_undo_stack_mark_clean (undo);
+  gtk_window_destroy (GTK_WINDOW (window));
+  pl_ui_test_spin (10);
+}
+END_TEST
+
 static Suite *
 presentation_suite (void)
 {
@@ -278,6 +338,7 @@ presentation_suite (void)
   tcase_set_timeout (tc, 200);
   tcase_add_test (tc, test_teach_the_starved_line);
   tcase_add_test (tc, test_accumulator_switch_and_gauge);
+  tcase_add_test (tc, test_fit_accumulator_to_starved_line);
   suite_add_tcase (s, tc);
   return s;
 }
