@@ -137,6 +137,81 @@ from_slider (guint c, double x)
   return controls[c].log ? pow (10.0, x) : x;
 }
 
+/* The longest on-time the document accepts (pl-part-types.c): every
+ * applicator's firing delay, the on-time and the closing ramp must fit in
+ * one firing period, 1 / cycle rate.  NAN without a document. */
+static double
+on_time_cap (PlWhatIf *self)
+{
+  const PlPart *scenario;
+  double latest_delay = 0.0;
+
+  if (self->doc == NULL)
+    return NAN;
+  scenario = pl_document_get_scenario (self->doc);
+  for (guint i = 0; i < pl_document_get_n_parts (self->doc); i++)
+    {
+      const PlPart *part = pl_document_get_part (self->doc, i);
+
+      if (pl_part_get_part_type (part)->kind == PL_PART_APPLICATOR)
+        latest_delay = MAX (latest_delay, pl_part_get_number (part, "firing-delay"));
+    }
+  return 1.0 / pl_part_get_number (scenario, "cycle-rate") - latest_delay
+         - pl_part_get_number (scenario, "close-ramp");
+}
+
+/* The range a control may take now: its own, and for the on-time the
+ * opening ramp at least and the cap above at most. */
+static void
+range_of (PlWhatIf *self, guint c, double *lo, double *hi)
+{
+  *lo = controls[c].lo;
+  *hi = controls[c].hi;
+  if (g_strcmp0 (controls[c].key, PL_WHAT_IF_ON_TIME) == 0 && self->doc != NULL)
+    {
+      double cap = on_time_cap (self);
+      double open_ramp = pl_part_get_number (pl_document_get_scenario (self->doc), "open-ramp");
+
+      *lo = MAX (*lo, open_ramp);
+      if (isfinite (cap) && cap > *lo)
+        *hi = MIN (*hi, cap);
+    }
+}
+
+/* Three significant digits, towards lo..hi where rounding left them. */
+static double
+round_within (double v, double lo, double hi)
+{
+  double mag = pow (10.0, floor (log10 (v)) - 2.0);
+  double r = round (v / mag) * mag;
+
+  if (r > hi)
+    r = floor (v / mag) * mag;
+  if (r < lo)
+    r = ceil (v / mag) * mag;
+  return r;
+}
+
+/* The on-time slider stops where the document stops taking it, and its
+ * tooltip says why. */
+static void
+update_on_time_range (PlWhatIf *self, guint c)
+{
+  double lo, hi;
+  g_autofree char *cap = NULL;
+  g_autofree char *tip = NULL;
+
+  range_of (self, c, &lo, &hi);
+  gtk_range_set_range (self->scales[c], to_slider (c, lo), to_slider (c, hi));
+  cap = pl_unit_format (hi, PL_QUANTITY_TIME, &self->units, 3, PL_UNIT_DECIMAL_FROM_LOCALE);
+  tip = g_strdup_printf (
+    /* Translators: %s is a time, "0.247 s". */
+    _("Up to %s: every applicator's firing delay, the on-time and the closing time must fit "
+      "in one firing period (1 / firing rate), and the on-time must not be shorter than the "
+      "opening time."), cap);
+  gtk_widget_set_tooltip_text (GTK_WIDGET (self->scales[c]), tip);
+}
+
 static void
 show_value (PlWhatIf *self, guint c, double v)
 {
@@ -189,6 +264,8 @@ refresh (PlWhatIf *self)
         v = fit.precharge;
 
       gtk_widget_set_sensitive (GTK_WIDGET (self->scales[c]), isfinite (v));
+      if (g_strcmp0 (controls[c].key, PL_WHAT_IF_ON_TIME) == 0)
+        update_on_time_range (self, c);
       if (controls[c].param == NULL && part != NULL)
         {
           /* The viscosity control sets the law's own parameter: its name. */
@@ -247,7 +324,7 @@ value_changed_cb (GtkRange *range, PlWhatIf *self)
   const PlPart *part;
   gint64 now = g_get_monotonic_time ();
   gboolean merge;
-  double v;
+  double v, lo, hi;
 
   if (self->refreshing || self->undo == NULL)
     return;
@@ -257,11 +334,8 @@ value_changed_cb (GtkRange *range, PlWhatIf *self)
   part = find_target (self, controls[c].target);
   /* Three significant digits: what the value label shows is what is set. */
   v = from_slider (c, gtk_range_get_value (range));
-  {
-    double mag = pow (10.0, floor (log10 (v)) - 2.0);
-
-    v = round (v / mag) * mag;
-  }
+  range_of (self, c, &lo, &hi);
+  v = round_within (v, lo, hi);
   if (part == NULL && controls[c].target == TARGET_ACCUMULATOR)
     {
       /* No accumulator yet: the value waits for the switch. */

@@ -27,6 +27,7 @@
 
 #include "pl-application.h"
 #include "pl-check.h"
+#include "pl-command.h"
 #include "pl-presentation.h"
 #include "pl-results-series.h"
 #include "pl-ui-test.h"
@@ -326,6 +327,52 @@ START_TEST (test_fit_accumulator_to_starved_line)
 }
 END_TEST
 
+/* The on-time slider ends where the document stops taking it: the firing
+ * period less the closing time (the starved line: 4 shots a second, 3 ms
+ * closing, no firing delays: 250 - 3 = 247 ms; arithmetic on the sample's
+ * figures), follows a change of the
+ * firing rate, and says why in its tooltip. */
+START_TEST (test_on_time_capped_by_firing_period)
+{
+  PlWindow *window = open_sample ("carton-sealer-starved.pline");
+  PlDocument *doc = pl_window_get_document (window);
+  PlUndoStack *undo = pl_window_get_undo_stack (window);
+  PlPresentation *p = enter (window);
+  PlWhatIf *what_if = pl_presentation_get_what_if (p);
+  GtkRange *on_time = pl_what_if_get_control (what_if, PL_WHAT_IF_ON_TIME);
+  GtkAdjustment *adj = gtk_range_get_adjustment (on_time);
+  g_autoptr (PlCommand) faster = pl_command_new_set_scenario_number ("cycle-rate", 5.0);
+  const PlPart *scenario = pl_document_get_scenario (doc);
+  double top;
+
+  /* Slider positions are log10 of seconds; the test reads them back. */
+  top = pow (10.0, gtk_adjustment_get_upper (adj));
+  ck_assert_double_eq_tol (top, 0.247, 1e-9);
+  ck_assert_msg (strstr (gtk_widget_get_tooltip_text (GTK_WIDGET (on_time)), "0.247 s")
+                 != NULL, "tooltip: %s", gtk_widget_get_tooltip_text (GTK_WIDGET (on_time)));
+  gtk_range_set_value (on_time, log10 (0.3));
+  pl_ui_test_spin (20);
+  ck_assert_str_eq (pl_what_if_get_message (what_if), "");
+  ck_assert_double_eq_tol (pl_part_get_number (scenario, "on-time"), 0.247, 1e-9);
+  ck_assert (pl_undo_stack_undo (undo));
+
+  /* 5 shots a second: 200 - 3 = 197 ms. */
+  ck_assert (pl_undo_stack_push (undo, faster, NULL));
+  pl_ui_test_spin (20);
+  top = pow (10.0, gtk_adjustment_get_upper (adj));
+  ck_assert_double_eq_tol (top, 0.197, 1e-9);
+  gtk_range_set_value (on_time, log10 (0.3));
+  pl_ui_test_spin (20);
+  ck_assert_str_eq (pl_what_if_get_message (what_if), "");
+  ck_assert_double_eq_tol (pl_part_get_number (scenario, "on-time"), 0.197, 1e-9);
+  pl_ui_test_wait_for_full (window);
+  ck_assert (gtk_widget_activate_action (GTK_WIDGET (p), "presentation.leave", NULL));
+  pl_undo_stack_mark_clean (undo);
+  gtk_window_destroy (GTK_WINDOW (window));
+  pl_ui_test_spin (10);
+}
+END_TEST
+
 static Suite *
 presentation_suite (void)
 {
@@ -339,6 +386,7 @@ presentation_suite (void)
   tcase_add_test (tc, test_teach_the_starved_line);
   tcase_add_test (tc, test_accumulator_switch_and_gauge);
   tcase_add_test (tc, test_fit_accumulator_to_starved_line);
+  tcase_add_test (tc, test_on_time_capped_by_firing_period);
   suite_add_tcase (s, tc);
   return s;
 }
