@@ -56,6 +56,7 @@ typedef enum
 {
   PL_ORIENTATION_PORTRAIT,
   PL_ORIENTATION_LANDSCAPE,
+  PL_ORIENTATION_AUTO,        /* by the diagram's shape: pl_orientation_resolve */
   PL_N_ORIENTATIONS
 } PlOrientation;
 
@@ -67,7 +68,7 @@ typedef enum
   PL_N_WORK_ORDER_FORMATS
 } PlWorkOrderFormat;
 
-/* Stable ASCII keys: "a4", "letter", "a3"; "portrait", "landscape"; "pdf",
+/* Stable ASCII keys: "a4", "letter", "a3"; "portrait", "landscape", "auto"; "pdf",
  * "svg", "png" (also the file name extensions).  NULL out of range; the
  * from_key functions give the PL_N_ value for an unknown key. */
 const char *pl_paper_get_key (PlPaper paper);
@@ -75,9 +76,16 @@ PlPaper pl_paper_from_key (const char *key);
 /* Translated name, "A4 (210 × 297 mm)". */
 const char *pl_paper_get_label (PlPaper paper);
 /* Width and height (mm) of the paper in that orientation: ISO 216 A4
- * 210 x 297 and A3 297 x 420; ANSI/ASME Y14.1 Letter 8.5 x 11 in. */
+ * 210 x 297 and A3 297 x 420; ANSI/ASME Y14.1 Letter 8.5 x 11 in.
+ * PL_ORIENTATION_AUTO gives portrait: resolve it first. */
 void pl_paper_get_size (PlPaper paper, PlOrientation orientation, double *width_mm,
                         double *height_mm);
+/* Portrait or landscape: orientation itself unless it is AUTO; for AUTO
+ * landscape when the diagram's extent (pl_geometry_document_bounds) is
+ * wider than tall by more than the paper's aspect (long side over short
+ * side, about 1.41 for A4), else portrait (an empty layout too). */
+PlOrientation pl_orientation_resolve (PlOrientation orientation, PlPaper paper,
+                                      PlDocument *doc);
 const char *pl_orientation_get_key (PlOrientation orientation);
 PlOrientation pl_orientation_from_key (const char *key);
 const char *pl_work_order_format_get_key (PlWorkOrderFormat format);

@@ -15,7 +15,7 @@
 #include "pl-window-private.h"
 
 static PlExportSettings last_settings = {
-  PL_WORK_ORDER_PDF, PL_PAPER_A4, PL_ORIENTATION_PORTRAIT, PL_WORK_ORDER_DEFAULT_DPI
+  PL_WORK_ORDER_PDF, PL_PAPER_A4, PL_ORIENTATION_AUTO, PL_WORK_ORDER_DEFAULT_DPI
 };
 
 const PlExportSettings *
@@ -48,7 +48,10 @@ pl_export_dialog_write (PlWindow *window, GFile *file, const PlExportSettings *s
   format = pl_work_order_format_from_filename (path);
   if (format == PL_N_WORK_ORDER_FORMATS)
     format = settings->format;
-  pl_paper_get_size (settings->paper, settings->orientation, &w, &h);
+  pl_paper_get_size (settings->paper,
+                     pl_orientation_resolve (settings->orientation, settings->paper,
+                                             pl_window_get_document (window)),
+                     &w, &h);
   wo = pl_print_make_work_order (window, w, h);
   return pl_work_order_write (wo, format, settings->dpi, path, error);
 }
@@ -187,7 +190,9 @@ pl_export_dialog_show (PlWindow *window)
                             _("SVG drawing, a file per sheet"),
                             _("PNG image, a file per sheet"), NULL };
   const char *papers[PL_N_PAPERS + 1] = { NULL };
-  const char *orientations[] = { _("Portrait"), _("Landscape"), NULL };
+  /* In the order of PlOrientation. */
+  const char *orientations[] = { _("Portrait"), _("Landscape"),
+                                 _("Automatic, by the diagram's shape"), NULL };
   GtkWidget *dialog, *grid, *note;
 
   g_return_if_fail (PL_IS_WINDOW (window));
@@ -218,6 +223,9 @@ pl_export_dialog_show (PlWindow *window)
   gtk_drop_down_set_selected (d->paper, last_settings.paper);
   gtk_drop_down_set_selected (d->orientation, last_settings.orientation);
   gtk_spin_button_set_value (d->dpi, last_settings.dpi);
+  gtk_widget_set_tooltip_text (GTK_WIDGET (d->orientation),
+                               _("Automatic turns the sheets to landscape when the diagram is "
+                                 "wider than tall by more than the paper's own proportion."));
   gtk_widget_set_tooltip_text (GTK_WIDGET (d->dpi),
                                _("Dots per inch of the PNG images: 150 for the screen, "
                                  "300 for a printer."));

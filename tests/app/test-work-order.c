@@ -28,6 +28,7 @@
 #include "pl-layout-writer.h"
 #include "pl-results.h"
 #include "pl-solve-scheduler.h"
+#include "pl-undo-stack.h"
 #include "pl-work-order.h"
 
 /* White space of any kind and length as one space: pdftotext breaks lines
@@ -481,6 +482,108 @@ START_TEST (test_pdf_papers)
 }
 END_TEST
 
+/* The page size pdfinfo reports for pdf, in points. */
+static void
+pdf_page_size (const char *pdf, double *w, double *h)
+{
+  const char *argv[] = { "pdfinfo", pdf, NULL };
+  g_autofree char *info = NULL;
+  g_autoptr (GRegex) re = g_regex_new ("Page size: +([0-9.]+) x ([0-9.]+) pts", 0, 0, NULL);
+  g_autoptr (GMatchInfo) m = NULL;
+  g_autofree char *pw = NULL, *ph = NULL;
+
+  ck_assert (g_spawn_sync (NULL, (char **) argv, NULL, G_SPAWN_SEARCH_PATH, NULL, NULL, &info,
+                           NULL, NULL, NULL));
+  ck_assert_msg (g_regex_match (re, info, 0, &m), "%s", info);
+  pw = g_match_info_fetch (m, 1);
+  ph = g_match_info_fetch (m, 2);
+  *w = g_ascii_strtod (pw, NULL);
+  *h = g_ascii_strtod (ph, NULL);
+}
+
+/* The starved line turned a quarter: every part at (y, x) instead of
+ * (x, y), so the diagram stands taller than wide. */
+static char *
+tall_layout_file (void)
+{
+  g_autofree char *wide = sample_path ("carton-sealer-starved.pline");
+  g_autoptr (PlDocument) doc = pl_layout_read_file (wide, NULL);
+  g_autoptr (PlUndoStack) undo = NULL;
+  char *path = pl_tmpdir_path ("tall.pline");
+
+  ck_assert_ptr_nonnull (doc);
+  undo = pl_undo_stack_new (doc);
+  for (guint i = 0; i < pl_document_get_n_parts (doc); i++)
+    {
+      const PlPart *part = pl_document_get_part (doc, i);
+      const char *ids[] = { pl_part_get_id (part) };
+      double x = pl_part_get_x (part), y = pl_part_get_y (part);
+      g_autoptr (PlCommand) move = pl_command_new_move (ids, 1, y - x, x - y);
+
+      ck_assert (pl_undo_stack_push (undo, move, NULL));
+    }
+  ck_assert (pl_layout_write_file (doc, path, NULL));
+  return path;
+}
+
+/* Orientation "auto", the export's default: the wide starved line (about
+ * 480 x 100 mm, wider than A4's 297/210) goes landscape, the same line
+ * turned to stand tall goes portrait; an orientation asked for is kept. */
+START_TEST (test_auto_orientation)
+{
+  g_autofree char *wide = sample_path ("carton-sealer-starved.pline");
+  g_autofree char *tall = tall_layout_file ();
+  g_autofree char *pdf = pl_tmpdir_path ("auto.pdf");
+  g_autoptr (PlDocument) wide_doc = pl_layout_read_file (wide, NULL);
+  g_autoptr (PlDocument) tall_doc = pl_layout_read_file (tall, NULL);
+  double w, h;
+
+  ck_assert_int_eq (pl_orientation_resolve (PL_ORIENTATION_AUTO, PL_PAPER_A4, wide_doc),
+                    PL_ORIENTATION_LANDSCAPE);
+  ck_assert_int_eq (pl_orientation_resolve (PL_ORIENTATION_AUTO, PL_PAPER_A4, tall_doc),
+                    PL_ORIENTATION_PORTRAIT);
+  ck_assert_int_eq (pl_orientation_resolve (PL_ORIENTATION_PORTRAIT, PL_PAPER_A4, wide_doc),
+                    PL_ORIENTATION_PORTRAIT);
+  {
+    g_autoptr (PlDocument) empty = pl_document_new ();
+
+    ck_assert_int_eq (pl_orientation_resolve (PL_ORIENTATION_AUTO, PL_PAPER_A3, empty),
+                      PL_ORIENTATION_PORTRAIT);
+  }
+
+  {
+    const char *args[] = { "export", wide, "-o", pdf, NULL };
+    CliRun r = spawn_cli_argv (args);
+
+    ck_assert_msg (r.status == 0, "exit %d: %s", r.status, r.err);
+    cli_run_clear (&r);
+    pdf_page_size (pdf, &w, &h);
+    /* A4 landscape: 297 x 210 mm = 841.89 x 595.28 pt (72 pt per inch). */
+    ck_assert_double_eq_tol (w, 841.89, 0.01);
+    ck_assert_double_eq_tol (h, 595.28, 0.01);
+  }
+  {
+    const char *args[] = { "export", tall, "-o", pdf, "--orientation", "auto", NULL };
+    CliRun r = spawn_cli_argv (args);
+
+    ck_assert_msg (r.status == 0, "exit %d: %s", r.status, r.err);
+    cli_run_clear (&r);
+    pdf_page_size (pdf, &w, &h);
+    ck_assert_double_eq_tol (w, 595.28, 0.01);
+    ck_assert_double_eq_tol (h, 841.89, 0.01);
+  }
+  {
+    const char *args[] = { "export", wide, "-o", pdf, "--orientation", "portrait", NULL };
+    CliRun r = spawn_cli_argv (args);
+
+    ck_assert_msg (r.status == 0, "exit %d: %s", r.status, r.err);
+    cli_run_clear (&r);
+    pdf_page_size (pdf, &w, &h);
+    ck_assert_double_eq_tol (w, 595.28, 0.01);
+  }
+}
+END_TEST
+
 /* --- long tables and missing figures --- */
 
 /* Sixty extra hoses make the parts list run over a sheet: the rest comes
@@ -715,6 +818,7 @@ work_order_suite (void)
   tcase_add_loop_test (tp, test_png_size, 0, G_N_ELEMENTS (pngs));
   tcase_add_loop_test (tp, test_pdf_papers, 0, PL_N_PAPERS * PL_N_ORIENTATIONS);
   tcase_add_test (tp, test_failed_write_keeps_old_file);
+  tcase_add_test (tp, test_auto_orientation);
   suite_add_tcase (s, tp);
 
   tcase_add_checked_fixture (tc, pl_tmpdir_setup, pl_tmpdir_teardown);
