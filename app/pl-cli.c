@@ -235,6 +235,7 @@ pl_cli_export (int argc, char **argv)
   g_autoptr (PlDocument) doc = NULL;
   g_autoptr (PlResults) results = NULL;
   g_autoptr (PlWorkOrder) wo = NULL;
+  g_autoptr (GPtrArray) removed = NULL;
   g_autoptr (GError) error = NULL;
 
   pl_work_order_options_init (&opts);
@@ -335,11 +336,16 @@ pl_cli_export (int argc, char **argv)
                      &opts.height_mm);
   opts.file_name = filename;
   wo = pl_work_order_new (doc, results, &opts);
-  if (!pl_work_order_write (wo, format, dpi, output, &error))
+  removed = g_ptr_array_new_with_free_func (g_free);
+  if (!pl_work_order_write_full (wo, format, dpi, output, removed, &error))
     {
       fprintf (stderr, "pressline-cli: %s\n", error->message);
       return 2;
     }
+  for (guint i = 0; i < removed->len; i++)
+    /* Translators: %s is a file name. */
+    printf (_("Removed %s, a sheet left from an earlier export with more sheets.\n"),
+            (const char *) g_ptr_array_index (removed, i));
   return 0;
 }
 

@@ -21,7 +21,8 @@
  * Multi-sheet SVG and PNG: neither format has pages, so each sheet is its
  * own file at the paper's size: sheet one in the file named, sheet N in the
  * same name with "-N" before the extension (work.png, work-2.png, ...).
- * PDF holds every sheet as a page.
+ * Each carries a generator mark, by which a later export with fewer
+ * sheets removes the ones left over.  PDF holds every sheet as a page.
  */
 #pragma once
 
@@ -142,5 +143,14 @@ char *pl_work_order_sheet_filename (const char *filename, guint index);
  * never leaves half a file.  FALSE with error naming the file. */
 gboolean pl_work_order_write (PlWorkOrder *self, PlWorkOrderFormat format, double dpi,
                               const char *filename, GError **error);
+/* The same; then, for SVG and PNG, the sheets an earlier export to the
+ * same name left beyond the new sheet count are removed: NAME-K.EXT for
+ * K past the count, one after the other while each exists and carries
+ * Pressline's generator mark (an SVG <metadata> element, a PNG tEXt
+ * "Software" chunk); the first gap or foreign file ends it, and nothing
+ * else is ever deleted.  removed (may be NULL) gets the names removed
+ * (newly allocated strings; the array frees them with g_free). */
+gboolean pl_work_order_write_full (PlWorkOrder *self, PlWorkOrderFormat format, double dpi,
+                                   const char *filename, GPtrArray *removed, GError **error);
 
 G_END_DECLS

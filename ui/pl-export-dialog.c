@@ -26,7 +26,7 @@ pl_export_dialog_get_settings (void)
 
 gboolean
 pl_export_dialog_write (PlWindow *window, GFile *file, const PlExportSettings *settings,
-                        GError **error)
+                        GPtrArray *removed, GError **error)
 {
   g_autofree char *path = NULL;
   g_autoptr (PlWorkOrder) wo = NULL;
@@ -53,7 +53,34 @@ pl_export_dialog_write (PlWindow *window, GFile *file, const PlExportSettings *s
                                              pl_window_get_document (window)),
                      &w, &h);
   wo = pl_print_make_work_order (window, w, h);
-  return pl_work_order_write (wo, format, settings->dpi, path, error);
+  return pl_work_order_write_full (wo, format, settings->dpi, path, removed, error);
+}
+
+char *
+pl_export_dialog_describe (GFile *file, GPtrArray *removed)
+{
+  g_autofree char *name = g_file_get_basename (file);
+  g_autoptr (GString) names = g_string_new (NULL);
+
+  if (removed == NULL || removed->len == 0)
+    /* Translators: a brief message after an export; %s is a file name. */
+    return g_strdup_printf (_("Work order written to %s"), name);
+  for (guint i = 0; i < removed->len; i++)
+    {
+      g_autofree char *base = g_path_get_basename (g_ptr_array_index (removed, i));
+
+      if (i > 0)
+        /* Translators: between the names of removed files. */
+        g_string_append (names, _(", "));
+      g_string_append (names, base);
+    }
+  return g_strdup_printf (
+    /* Translators: a brief message after an export; the first %s is a file
+     * name, the second a list of file names. */
+    ngettext ("Work order written to %s; removed %s, a sheet left from an earlier export",
+              "Work order written to %s; removed %s, sheets left from an earlier export",
+              removed->len),
+    name, names->str);
 }
 
 /* --- the dialog --- */
@@ -98,16 +125,16 @@ chooser_response_cb (GtkNativeDialog *native, int response, gpointer data)
   if (response == GTK_RESPONSE_ACCEPT)
     {
       g_autoptr (GFile) file = gtk_file_chooser_get_file (GTK_FILE_CHOOSER (native));
+      g_autoptr (GPtrArray) removed = g_ptr_array_new_with_free_func (g_free);
       g_autoptr (GError) error = NULL;
 
-      if (file != NULL && !pl_export_dialog_write (window, file, &last_settings, &error))
+      if (file != NULL && !pl_export_dialog_write (window, file, &last_settings, removed,
+                                                   &error))
         pl_file_ops_show_error (window, _("The work order could not be exported"),
                                 error->message);
       else if (file != NULL)
         {
-          g_autofree char *name = g_file_get_basename (file);
-          /* Translators: a brief message after an export; %s is a file name. */
-          g_autofree char *text = g_strdup_printf (_("Work order written to %s"), name);
+          g_autofree char *text = pl_export_dialog_describe (file, removed);
 
           pl_window_show_toast (window, text);
         }

@@ -23,8 +23,8 @@ typedef struct
   double dpi;
 } PlExportSettings;
 
-/* The settings the next dialog starts from (PDF, A4 portrait, 150 dpi at
- * first).  Borrowed, never NULL. */
+/* The settings the next dialog starts from (PDF, A4, orientation auto,
+ * 150 dpi at first).  Borrowed, never NULL. */
 const PlExportSettings *pl_export_dialog_get_settings (void);
 
 /* Shows the dialog for window; the chosen file is written through
@@ -33,8 +33,15 @@ void pl_export_dialog_show (PlWindow *window);
 
 /* Writes the window's work order to file with settings, the format from
  * the file's extension when it has one of ours (else settings->format).
- * FALSE with error naming the file; nothing half written. */
+ * FALSE with error naming the file; nothing half written.  Sheets an
+ * earlier export left beyond the new count are removed
+ * (pl_work_order_write_full); removed (may be NULL) gets their names. */
 gboolean pl_export_dialog_write (PlWindow *window, GFile *file,
-                                 const PlExportSettings *settings, GError **error);
+                                 const PlExportSettings *settings, GPtrArray *removed,
+                                 GError **error);
+
+/* "Work order written to NAME", and the sheets removed if any: what the
+ * window's toast says after an export.  Newly allocated. */
+char *pl_export_dialog_describe (GFile *file, GPtrArray *removed);
 
 G_END_DECLS

@@ -74,12 +74,19 @@ static void
 action_export_work_order_to (GtkWidget *widget, const char *name, GVariant *param)
 {
   g_autoptr (GFile) file = g_file_new_for_path (g_variant_get_string (param, NULL));
+  g_autoptr (GPtrArray) removed = g_ptr_array_new_with_free_func (g_free);
   g_autoptr (GError) error = NULL;
 
   if (!pl_export_dialog_write (PL_WINDOW (widget), file, pl_export_dialog_get_settings (),
-                               &error))
+                               removed, &error))
     pl_file_ops_show_error (PL_WINDOW (widget), _("The work order could not be exported"),
                             error->message);
+  else
+    {
+      g_autofree char *text = pl_export_dialog_describe (file, removed);
+
+      pl_window_show_toast (PL_WINDOW (widget), text);
+    }
 }
 
 static void

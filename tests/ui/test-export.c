@@ -59,9 +59,10 @@ count (const char *text, const char *needle)
   return n;
 }
 
-/* The action writes what the dialog would, with its last settings (A4
- * portrait, 150 dpi at first): a PDF with every sheet, or PNG sheets of
- * 1240 x 1754 pixels (ISO 216 A4, 210 x 297 mm, at 150 dpi). */
+/* The action writes what the dialog would, with its last settings (A4,
+ * orientation auto, 150 dpi at first): a PDF with every sheet, or PNG
+ * sheets of 1754 x 1240 pixels (ISO 216 A4, 297 x 210 mm landscape, at
+ * 150 dpi: the demo's diagram is more than 1.41 times wider than tall). */
 START_TEST (test_export_action)
 {
   PlWindow *window = pl_ui_test_open_window (app, "samples/demo-glue-line.pline");
@@ -82,8 +83,8 @@ START_TEST (test_export_action)
                                          png));
   image = cairo_image_surface_create_from_png (png);
   ck_assert_int_eq (cairo_surface_status (image), CAIRO_STATUS_SUCCESS);
-  ck_assert_int_eq (cairo_image_surface_get_width (image), 1240);
-  ck_assert_int_eq (cairo_image_surface_get_height (image), 1754);
+  ck_assert_int_eq (cairo_image_surface_get_width (image), 1754);
+  ck_assert_int_eq (cairo_image_surface_get_height (image), 1240);
   cairo_surface_destroy (image);
   gtk_window_destroy (GTK_WINDOW (window));
 }
