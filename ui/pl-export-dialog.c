@@ -12,6 +12,7 @@
 #include <string.h>
 
 #include "pl-print.h"
+#include "pl-results-wait.h"
 #include "pl-window-private.h"
 
 static PlExportSettings last_settings = {
@@ -25,8 +26,8 @@ pl_export_dialog_get_settings (void)
 }
 
 gboolean
-pl_export_dialog_write (PlWindow *window, GFile *file, const PlExportSettings *settings,
-                        GPtrArray *removed, GError **error)
+pl_export_dialog_write (PlWindow *window, PlResults *results, GFile *file,
+                        const PlExportSettings *settings, GPtrArray *removed, GError **error)
 {
   g_autofree char *path = NULL;
   g_autoptr (PlWorkOrder) wo = NULL;
@@ -52,7 +53,7 @@ pl_export_dialog_write (PlWindow *window, GFile *file, const PlExportSettings *s
                      pl_orientation_resolve (settings->orientation, settings->paper,
                                              pl_window_get_document (window)),
                      &w, &h);
-  wo = pl_print_make_work_order (window, w, h);
+  wo = pl_print_make_work_order (window, results, w, h);
   return pl_work_order_write_full (wo, format, settings->dpi, path, removed, error);
 }
 
@@ -81,6 +82,54 @@ pl_export_dialog_describe (GFile *file, GPtrArray *removed)
               "Work order written to %s; removed %s, sheets left from an earlier export",
               removed->len),
     name, names->str);
+}
+
+typedef struct
+{
+  GFile *file;
+  PlExportSettings settings;
+} PendingExport;
+
+static void
+pending_export_free (gpointer data)
+{
+  PendingExport *p = data;
+
+  g_object_unref (p->file);
+  g_free (p);
+}
+
+static void
+export_when_solved_cb (PlWindow *window, PlResults *results, gpointer data)
+{
+  PendingExport *p = data;
+  g_autoptr (GPtrArray) removed = g_ptr_array_new_with_free_func (g_free);
+  g_autoptr (GError) error = NULL;
+  g_autofree char *text = NULL;
+
+  if (results == NULL)
+    return;   /* cancelled: nothing written */
+  if (!pl_export_dialog_write (window, results, p->file, &p->settings, removed, &error))
+    {
+      pl_file_ops_show_error (window, _("The work order could not be exported"),
+                              error->message);
+      return;
+    }
+  text = pl_export_dialog_describe (p->file, removed);
+  pl_window_show_toast (window, text);
+}
+
+void
+pl_export_dialog_write_when_solved (PlWindow *window, GFile *file,
+                                    const PlExportSettings *settings)
+{
+  PendingExport *p = g_new0 (PendingExport, 1);
+
+  g_return_if_fail (PL_IS_WINDOW (window) && G_IS_FILE (file) && settings != NULL);
+  p->file = g_object_ref (file);
+  p->settings = *settings;
+  pl_results_wait (window, _("Export Work Order"), export_when_solved_cb, p,
+                   pending_export_free);
 }
 
 /* --- the dialog --- */
@@ -125,19 +174,9 @@ chooser_response_cb (GtkNativeDialog *native, int response, gpointer data)
   if (response == GTK_RESPONSE_ACCEPT)
     {
       g_autoptr (GFile) file = gtk_file_chooser_get_file (GTK_FILE_CHOOSER (native));
-      g_autoptr (GPtrArray) removed = g_ptr_array_new_with_free_func (g_free);
-      g_autoptr (GError) error = NULL;
 
-      if (file != NULL && !pl_export_dialog_write (window, file, &last_settings, removed,
-                                                   &error))
-        pl_file_ops_show_error (window, _("The work order could not be exported"),
-                                error->message);
-      else if (file != NULL)
-        {
-          g_autofree char *text = pl_export_dialog_describe (file, removed);
-
-          pl_window_show_toast (window, text);
-        }
+      if (file != NULL)
+        pl_export_dialog_write_when_solved (window, file, &last_settings);
     }
   g_object_unref (native);
   g_object_unref (window);

@@ -16,6 +16,7 @@
 #include "pl-export-dialog.h"
 #include "pl-presentation.h"
 #include "pl-print.h"
+#include "pl-results-wait.h"
 #include "pl-window-private.h"
 
 /* One step of the zoom keys and menu items: five steps double the zoom
@@ -74,30 +75,28 @@ static void
 action_export_work_order_to (GtkWidget *widget, const char *name, GVariant *param)
 {
   g_autoptr (GFile) file = g_file_new_for_path (g_variant_get_string (param, NULL));
-  g_autoptr (GPtrArray) removed = g_ptr_array_new_with_free_func (g_free);
+
+  pl_export_dialog_write_when_solved (PL_WINDOW (widget), file,
+                                      pl_export_dialog_get_settings ());
+}
+
+/* Printing waits for the full results like the export (pl-results-wait.h). */
+static void
+print_when_solved_cb (PlWindow *window, PlResults *results, gpointer data)
+{
   g_autoptr (GError) error = NULL;
 
-  if (!pl_export_dialog_write (PL_WINDOW (widget), file, pl_export_dialog_get_settings (),
-                               removed, &error))
-    pl_file_ops_show_error (PL_WINDOW (widget), _("The work order could not be exported"),
-                            error->message);
-  else
-    {
-      g_autofree char *text = pl_export_dialog_describe (file, removed);
-
-      pl_window_show_toast (PL_WINDOW (widget), text);
-    }
+  if (results != NULL
+      && pl_print_run (window, results, GTK_PRINT_OPERATION_ACTION_PRINT_DIALOG, NULL, &error)
+         == GTK_PRINT_OPERATION_RESULT_ERROR)
+    pl_file_ops_show_error (window, _("The work order could not be printed"),
+                            error != NULL ? error->message : "");
 }
 
 static void
 action_print (GtkWidget *widget, const char *name, GVariant *param)
 {
-  g_autoptr (GError) error = NULL;
-
-  if (pl_print_run (PL_WINDOW (widget), GTK_PRINT_OPERATION_ACTION_PRINT_DIALOG, NULL, &error)
-      == GTK_PRINT_OPERATION_RESULT_ERROR)
-    pl_file_ops_show_error (PL_WINDOW (widget), _("The work order could not be printed"),
-                            error != NULL ? error->message : "");
+  pl_results_wait (PL_WINDOW (widget), _("Print"), print_when_solved_cb, NULL, NULL);
 }
 
 static void
