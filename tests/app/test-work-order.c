@@ -501,6 +501,17 @@ pdf_page_size (const char *pdf, double *w, double *h)
   *h = g_ascii_strtod (ph, NULL);
 }
 
+/* Runs the CLI with args (an export to pdf) and reads the page size. */
+static void
+export_page_size (const char *const *args, const char *pdf, double *w, double *h)
+{
+  CliRun r = spawn_cli_argv (args);
+
+  ck_assert_msg (r.status == 0, "exit %d: %s", r.status, r.err);
+  cli_run_clear (&r);
+  pdf_page_size (pdf, w, h);
+}
+
 /* The starved line turned a quarter: every part at (y, x) instead of
  * (x, y), so the diagram stands taller than wide. */
 static char *
@@ -553,32 +564,23 @@ START_TEST (test_auto_orientation)
 
   {
     const char *args[] = { "export", wide, "-o", pdf, NULL };
-    CliRun r = spawn_cli_argv (args);
 
-    ck_assert_msg (r.status == 0, "exit %d: %s", r.status, r.err);
-    cli_run_clear (&r);
-    pdf_page_size (pdf, &w, &h);
     /* A4 landscape: 297 x 210 mm = 841.89 x 595.28 pt (72 pt per inch). */
+    export_page_size (args, pdf, &w, &h);
     ck_assert_double_eq_tol (w, 841.89, 0.01);
     ck_assert_double_eq_tol (h, 595.28, 0.01);
   }
   {
     const char *args[] = { "export", tall, "-o", pdf, "--orientation", "auto", NULL };
-    CliRun r = spawn_cli_argv (args);
 
-    ck_assert_msg (r.status == 0, "exit %d: %s", r.status, r.err);
-    cli_run_clear (&r);
-    pdf_page_size (pdf, &w, &h);
+    export_page_size (args, pdf, &w, &h);
     ck_assert_double_eq_tol (w, 595.28, 0.01);
     ck_assert_double_eq_tol (h, 841.89, 0.01);
   }
   {
     const char *args[] = { "export", wide, "-o", pdf, "--orientation", "portrait", NULL };
-    CliRun r = spawn_cli_argv (args);
 
-    ck_assert_msg (r.status == 0, "exit %d: %s", r.status, r.err);
-    cli_run_clear (&r);
-    pdf_page_size (pdf, &w, &h);
+    export_page_size (args, pdf, &w, &h);
     ck_assert_double_eq_tol (w, 595.28, 0.01);
   }
 }

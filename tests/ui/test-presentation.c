@@ -80,6 +80,28 @@ enter (PlWindow *window)
   return p;
 }
 
+/* Leaves presentation mode once the worker is done, and closes the
+ * window without asking about the what-if edits. */
+static void
+leave_and_close (PlWindow *window, PlPresentation *p)
+{
+  pl_ui_test_wait_for_full (window);
+  ck_assert (gtk_widget_activate_action (GTK_WIDGET (p), "presentation.leave", NULL));
+  pl_undo_stack_mark_clean (pl_window_get_undo_stack (window));
+  gtk_window_destroy (GTK_WINDOW (window));
+  pl_ui_test_spin (10);
+}
+
+/* The layout's first accumulator, or NULL. */
+static const PlPart *
+first_accumulator (PlDocument *doc)
+{
+  for (guint i = 0; i < pl_document_get_n_parts (doc); i++)
+    if (pl_part_get_part_type (pl_document_get_part (doc, i))->kind == PL_PART_ACCUMULATOR)
+      return pl_document_get_part (doc, i);
+  return NULL;
+}
+
 static double
 readout_si (PlPresentation *p, const char *part_id)
 {
@@ -260,11 +282,7 @@ START_TEST (test_accumulator_switch_and_gauge)
   ck_assert_uint_eq (pl_document_get_n_wires (doc), n_wires);
   ck_assert_ptr_nonnull (pl_document_find_part_by_tag (doc, "A1"));
   ck_assert_uint_eq (pl_undo_stack_get_n_undo (undo), n_undo + 2);
-  pl_ui_test_wait_for_full (window);
-  ck_assert (gtk_widget_activate_action (GTK_WIDGET (p), "presentation.leave", NULL));
-  pl_undo_stack_mark_clean (undo);
-  gtk_window_destroy (GTK_WINDOW (window));
-  pl_ui_test_spin (10);
+  leave_and_close (window, p);
 }
 END_TEST
 
@@ -301,9 +319,7 @@ START_TEST (test_fit_accumulator_to_starved_line)
   pl_ui_test_spin (20);
   ck_assert_uint_eq (pl_document_get_n_parts (doc), n_parts + 1);
   ck_assert_uint_eq (pl_undo_stack_get_n_undo (undo), n_undo + 1);
-  for (guint i = 0; i < pl_document_get_n_parts (doc); i++)
-    if (pl_part_get_part_type (pl_document_get_part (doc, i))->kind == PL_PART_ACCUMULATOR)
-      acc = pl_document_get_part (doc, i);
+  acc = first_accumulator (doc);
   ck_assert_ptr_nonnull (acc);
   ck_assert_double_eq_tol (pl_part_get_number (acc, "precharge"), 20e5, 1e3);
   ck_assert (gtk_switch_get_active (sw));
@@ -319,19 +335,15 @@ START_TEST (test_fit_accumulator_to_starved_line)
   ck_assert (pl_document_equal (doc, before));
   ck_assert (!gtk_switch_get_active (sw));
   ck_assert_str_eq (pl_what_if_get_fit_note (what_if), "");
-  pl_ui_test_wait_for_full (window);
-  ck_assert (gtk_widget_activate_action (GTK_WIDGET (p), "presentation.leave", NULL));
-  pl_undo_stack_mark_clean (undo);
-  gtk_window_destroy (GTK_WINDOW (window));
-  pl_ui_test_spin (10);
+  leave_and_close (window, p);
 }
 END_TEST
 
 /* The on-time slider ends where the document stops taking it: the firing
  * period less the closing time (the starved line: 4 shots a second, 3 ms
  * closing, no firing delays: 250 - 3 = 247 ms; arithmetic on the sample's
- * figures), follows a change of the
- * firing rate, and says why in its tooltip. */
+ * figures), follows a change of the firing rate, and says why in its
+ * tooltip. */
 START_TEST (test_on_time_capped_by_firing_period)
 {
   PlWindow *window = open_sample ("carton-sealer-starved.pline");
@@ -365,11 +377,7 @@ START_TEST (test_on_time_capped_by_firing_period)
   pl_ui_test_spin (20);
   ck_assert_str_eq (pl_what_if_get_message (what_if), "");
   ck_assert_double_eq_tol (pl_part_get_number (scenario, "on-time"), 0.197, 1e-9);
-  pl_ui_test_wait_for_full (window);
-  ck_assert (gtk_widget_activate_action (GTK_WIDGET (p), "presentation.leave", NULL));
-  pl_undo_stack_mark_clean (undo);
-  gtk_window_destroy (GTK_WINDOW (window));
-  pl_ui_test_spin (10);
+  leave_and_close (window, p);
 }
 END_TEST
 
