@@ -301,7 +301,9 @@ pl_export_dialog_show (PlWindow *window)
   add_row (GTK_GRID (grid), 2, _("_Orientation"), GTK_WIDGET (d->orientation));
   d->dpi_label = add_row (GTK_GRID (grid), 3, _("_Resolution (dpi)"), GTK_WIDGET (d->dpi));
   note = gtk_label_new (_("SVG and PNG sheets after the first are saved beside the file "
-                          "with -2, -3, … before the extension."));
+                          "with -2, -3, … before the extension. Exporting again with fewer "
+                          "sheets removes the numbered sheets of an earlier export that are "
+                          "left over."));
   gtk_label_set_wrap (GTK_LABEL (note), TRUE);
   gtk_label_set_max_width_chars (GTK_LABEL (note), 44);
   gtk_label_set_xalign (GTK_LABEL (note), 0.0);
