@@ -373,9 +373,10 @@ pl_undo_stack_get_redo_label (PlUndoStack *stack)
   return ((Step *) g_ptr_array_index (stack->steps, stack->pos))->label;
 }
 
-/* A step's label with what it acted on: "Change Bore of H2" for one
- * part, "Move 3 Parts" for several, "Delete 4 Items" for parts with wires
- * or notes; the bare label when it names no part. */
+/* A step's label with the parts it acted on: "Change Bore of H2" for one
+ * part, "Move 3 Parts" for several (wires and notes that went with them
+ * are not counted), "Delete 2 Items" for wires or notes alone; the bare
+ * label when it names nothing, or one wire or note. */
 static char *
 step_describe (const Step *step)
 {
@@ -396,15 +397,16 @@ step_describe (const Step *step)
         n_parts++;
         only_tag = tag;
       }
-  if (n == 1 && n_parts == 1)
+  if (n_parts == 1)
     /* Translators: an edit and the tag of the part it changed, "Change Bore of H2". */
     return g_strdup_printf (_("%s of %s"), step->label, only_tag);
-  if (n > 1 && n_parts == n)
+  if (n_parts > 1)
     /* Translators: an edit and how many parts it changed, "Move 3 Parts". */
-    return g_strdup_printf (ngettext ("%s %u Part", "%s %u Parts", n), step->label, n);
-  if (n > 1 && n_parts > 0)
-    /* Translators: an edit and how many parts, wires and notes it changed,
-     * "Delete 4 Items". */
+    return g_strdup_printf (ngettext ("%s %u Part", "%s %u Parts", n_parts), step->label,
+                            n_parts);
+  if (n > 1)
+    /* Translators: an edit and how many wires and notes it changed,
+     * "Delete 2 Items". */
     return g_strdup_printf (ngettext ("%s %u Item", "%s %u Items", n), step->label, n);
   return g_strdup (step->label);
 }

@@ -30,9 +30,9 @@ static PlResults *
 fresh_full (PlWindow *window)
 {
   PlResults *full = pl_solve_scheduler_get_full_results (pl_window_get_scheduler (window));
+  PlDocument *doc = pl_window_get_document (window);
 
-  if (full != NULL
-      && pl_results_get_revision (full) == pl_document_get_revision (pl_window_get_document (window))
+  if (full != NULL && pl_results_get_revision (full) == pl_document_get_revision (doc)
       && pl_results_get_transient_state (full) != PL_TRANSIENT_PENDING)
     return full;
   return NULL;

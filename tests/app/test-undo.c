@@ -668,6 +668,8 @@ START_TEST (test_descriptions_of_removed_parts)
   g_autoptr (PlCommand) wire = NULL;
   g_autoptr (PlCommand) remove_a = pl_command_new_remove ((const char *const[]) { "p1" }, 1);
   g_autoptr (PlCommand) remove_b = NULL;
+  g_autoptr (PlCommand) second = NULL;
+  g_autoptr (PlCommand) wires = NULL;
   const PlPartType *hose = pl_part_type_lookup ("hose");
   g_autofree char *text = NULL;
 
@@ -692,8 +694,24 @@ START_TEST (test_descriptions_of_removed_parts)
   g_clear_pointer (&text, g_free);
   ck_assert (pl_undo_stack_undo (stack));
 
-  remove_b = pl_command_new_remove ((const char *const[]) { "p2", pl_command_get_created_id (wire) }, 2);
+  /* A part with its wire is named by the part. */
+  remove_b = pl_command_new_remove ((const char *const[]) { "p2",
+                                                            pl_command_get_created_id (wire) },
+                                    2);
   ck_assert (pl_undo_stack_push (stack, remove_b, NULL));
+  text = pl_undo_stack_describe_undo (stack);
+  ck_assert_str_eq (text, "Delete of HB");
+  g_clear_pointer (&text, g_free);
+  ck_assert (pl_undo_stack_undo (stack));
+
+  /* Two wires alone are counted as items. */
+  second = pl_command_new_add_wire (NULL, "p1", hose->ports[0].key, "p2", hose->ports[1].key,
+                                    NULL, 0);
+  ck_assert (pl_undo_stack_push (stack, second, NULL));
+  wires = pl_command_new_remove ((const char *const[]) { pl_command_get_created_id (wire),
+                                                         pl_command_get_created_id (second) },
+                                 2);
+  ck_assert (pl_undo_stack_push (stack, wires, NULL));
   text = pl_undo_stack_describe_undo (stack);
   ck_assert_str_eq (text, "Delete 2 Items");
   g_clear_pointer (&text, g_free);
