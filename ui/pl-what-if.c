@@ -230,17 +230,17 @@ show_value (PlWhatIf *self, guint c, double v)
 }
 
 /* An accumulator this panel could fit to a layout without one, sized for
- * the present state with the planned precharge; FALSE when there is none
- * (no pump, no applicator, not solved yet). */
+ * the present state with precharge (NAN: the default); FALSE when there is
+ * none (no pump, no applicator, not solved yet, a precharge too high). */
 static gboolean
-plan_fit (PlWhatIf *self, PlAccumulatorFit *fit, GError **error)
+plan_fit (PlWhatIf *self, double precharge, PlAccumulatorFit *fit, GError **error)
 {
   PlResults *fast = self->scheduler != NULL
                     ? pl_solve_scheduler_get_fast_results (self->scheduler) : NULL;
 
   if (self->doc == NULL)
     return FALSE;
-  return pl_accumulator_fit_plan (self->doc, fast, self->planned_precharge, fit, error);
+  return pl_accumulator_fit_plan (self->doc, fast, precharge, fit, error);
 }
 
 static void
@@ -248,8 +248,11 @@ refresh (PlWhatIf *self)
 {
   const PlPart *acc = find_target (self, TARGET_ACCUMULATOR);
   PlAccumulatorFit fit;
+  /* Whether one can go in at all, by the default precharge: a planned
+   * precharge that is too high is refused when the switch is turned on,
+   * with the reason, and stays on its control to be lowered. */
   gboolean can_fit = acc == NULL && self->before_removal == NULL
-                     && plan_fit (self, &fit, NULL);
+                     && plan_fit (self, NAN, &fit, NULL);
 
   self->refreshing = TRUE;
   for (guint c = 0; c < N_CONTROLS; c++)
@@ -261,7 +264,7 @@ refresh (PlWhatIf *self)
       /* Without an accumulator the precharge control sets the precharge
        * of the one the switch would fit. */
       if (controls[c].target == TARGET_ACCUMULATOR && part == NULL && can_fit)
-        v = fit.precharge;
+        v = isfinite (self->planned_precharge) ? self->planned_precharge : fit.precharge;
 
       gtk_widget_set_sensitive (GTK_WIDGET (self->scales[c]), isfinite (v));
       if (g_strcmp0 (controls[c].key, PL_WHAT_IF_ON_TIME) == 0)
@@ -422,7 +425,7 @@ fit_accumulator (PlWhatIf *self)
   g_autofree char *precharge = NULL;
   g_autofree char *note = NULL;
 
-  if (!plan_fit (self, &fit, &error))
+  if (!plan_fit (self, self->planned_precharge, &fit, &error))
     {
       say (self, error->message);
       return;

@@ -312,6 +312,16 @@ START_TEST (test_fit_accumulator_to_starved_line)
   ck_assert (!gtk_switch_get_active (sw));
   ck_assert (gtk_widget_get_sensitive (GTK_WIDGET (sw)));
   ck_assert (gtk_widget_get_sensitive (GTK_WIDGET (precharge)));
+  /* 300 bar on the precharge control is far above the idle pressure: on
+   * is refused with the reason, nothing is added, the control stays. */
+  gtk_range_set_value (precharge, log10 (300e5));
+  gtk_switch_set_active (sw, TRUE);
+  pl_ui_test_spin (20);
+  ck_assert_uint_eq (pl_document_get_n_parts (doc), n_parts);
+  ck_assert (!gtk_switch_get_active (sw));
+  ck_assert_msg (strstr (pl_what_if_get_message (what_if), "precharge") != NULL, "message: %s",
+                 pl_what_if_get_message (what_if));
+  ck_assert (gtk_widget_get_sensitive (GTK_WIDGET (precharge)));
   /* 20 bar on the precharge control, then on. */
   gtk_range_set_value (precharge, log10 (20e5));
   ck_assert_uint_eq (pl_undo_stack_get_n_undo (undo), n_undo);
