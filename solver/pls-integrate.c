@@ -305,6 +305,26 @@ pls_linear_solve (pls__model *m, pls_error *err)
 static pls_status pls_algebraic_flow (const pls__model *m, size_t k, double dp, double *q,
                                       pls_error *err);
 
+/* The Newton update of a node with a gas pocket, taken on its stored
+ * volume: the node's equation is linear in V, and V(p) goes as -1 / p_abs
+ * near vacuum, so a step on p itself overshoots far beyond vacuum from
+ * above and crawls back from below.  The volume change of the linear
+ * system solved, slope * dp (slope: the node's slope in the factored
+ * matrix), is kept and p follows from V exactly (pls__pocket_pressure).
+ * Where the pocket is negligible it is the plain step. */
+static void
+pls_pocket_update (pls__model *m, size_t n, double slope)
+{
+  const double near = PLS_CAVITATION_PRESSURE + PLS_POCKET_NEAR * PLS_ATMOSPHERE;
+  double p = m->p[n];
+
+  if (p > near && p + m->dp[n] > near)
+    return;
+  m->dp[n] = pls__pocket_pressure (&m->nodes[n], pls__node_volume (m, n, p, NULL)
+                                                   + slope * m->dp[n])
+             - p;
+}
+
 /* Newton on one stage: V(p) - hist_v = kappa * inflow at the free nodes,
  * I (q - hist_q) / kappa + h(q) = dP on the links (I = 0: algebraic).
  * Starts from m->p, m->q; leaves the solution there.  *converged = 0 if
@@ -328,6 +348,16 @@ pls_stage (pls__model *m, double kappa, int *converged, pls_error *err)
   if (tol->p_scale_global)
     for (i = 0; i < m->nf; i++)
       pscale = PLS_MAX (pscale, fabs (m->p[m->col_node[i]]));
+  /* A node's updates are measured against its own size at the step's
+   * start: an iterate (or a predicted start) far out on a gas pocket's law
+   * must not widen its own tolerance. */
+  for (i = 0; i < m->nf; i++)
+    {
+      size_t n = (size_t) m->col_node[i];
+
+      pls__node_measure (m, n, m->p0[n], 0.0, 0.0, &m->xs[n]);
+      m->xs[n] = fabs (m->xs[n]);
+    }
   for (it = 0; it < PLS_NEWTON_MAX; it++)
     {
       double worst = 0.0;
@@ -408,9 +438,12 @@ pls_stage (pls__model *m, double kappa, int *converged, pls_error *err)
       for (i = 0; i < m->nf; i++)
         {
           int n = m->col_node[i];
-          double s = fabs (m->dp[n])
-                     / (tol->atol_p + tol->rtol * PLS_MAX (pscale, fabs (m->p[n])));
+          double x, s, d;
 
+          d = pls__node_measure (m, (size_t) n, m->p[n], m->dp[n], m->ev[i], &x);
+          if (m->nodes[n].pocket_g > 0.0)
+            pls_pocket_update (m, (size_t) n, m->ev[i]);
+          s = fabs (d) / (tol->atol_p + tol->rtol * PLS_MAX (pscale, m->xs[n]));
           m->p[n] += m->dp[n];
           worst = s > worst ? s : worst;
         }
@@ -466,6 +499,18 @@ pls_stage (pls__model *m, double kappa, int *converged, pls_error *err)
   return PLS_OK;
 }
 
+/* A predicted pressure p of node i, or the known one when p would be near
+ * vacuum on a gas pocket's law, where an extrapolation in p is a poor
+ * guess and may land far beyond vacuum (pls_pocket_update). */
+static double
+pls_pocket_guess (const pls__model *m, size_t i, double p, double known)
+{
+  if (m->nodes[i].pocket_g > 0.0
+      && p < PLS_CAVITATION_PRESSURE + PLS_POCKET_NEAR * PLS_ATMOSPHERE)
+    return known;
+  return p;
+}
+
 /* Predictor of the first stage: the quadratic through the last accepted
  * step's three points (its dense output, as pls-cycle.c samples it),
  * extrapolated to tp.  The stage starts from y_n otherwise, an O(h)
@@ -487,7 +532,8 @@ pls_predict (pls__model *m, double tp)
   l1 = (tp - t0) * (tp - tg) / ((t1 - t0) * (t1 - tg));
   for (i = 0; i < m->n_nodes; i++)
     if (!m->nodes[i].fixed)
-      m->p[i] = l0 * m->pred_p0[i] + lg * m->pred_pg[i] + l1 * m->p0[i];
+      m->p[i] = pls_pocket_guess (m, i, l0 * m->pred_p0[i] + lg * m->pred_pg[i] + l1 * m->p0[i],
+                                  m->p0[i]);
   for (k = 0; k < m->n_links; k++)
     m->q[k] = l0 * m->pred_q0[k] + lg * m->pred_qg[k] + l1 * m->q0[k];
 }
@@ -538,7 +584,8 @@ pls_step (pls__model *m, const pls__schedule *s, double t, double h, int *conver
   /* Predictor: the line through the two known points. */
   for (i = 0; i < n; i++)
     if (!m->nodes[i].fixed)
-      m->p[i] = m->pg[i] + (m->pg[i] - m->p0[i]) * (1.0 - gam) / gam;
+      m->p[i] = pls_pocket_guess (m, i, m->pg[i] + (m->pg[i] - m->p0[i]) * (1.0 - gam) / gam,
+                                  m->pg[i]);
   for (k = 0; k < l; k++)
     m->q[k] = m->qg[k] + (m->qg[k] - m->q0[k]) * (1.0 - gam) / gam;
   pls__schedule_apply (m, s, t + h);
@@ -578,9 +625,14 @@ pls_step (pls__model *m, const pls__schedule *s, double t, double h, int *conver
   for (i = 0; i < m->nf; i++)
     {
       int c = m->col_node[i];
-      double sc = m->tol.atol_p
-                  + m->tol.rtol * PLS_MAX (pscale, PLS_MAX (fabs (m->p0[c]), fabs (m->p[c])));
-      double r = fabs (m->dp[c]) / sc;
+      double x0, x1, d = pls__node_measure (m, (size_t) c, m->p[c], m->dp[c], m->ev[i], &x1);
+      double sc, r;
+
+      /* A pocket is measured against its size at the start alone (x0, not
+       * x1): one that the step blew up must not pass on its own new size. */
+      pls__node_measure (m, (size_t) c, m->p0[c], 0.0, 0.0, &x0);
+      sc = m->tol.atol_p + m->tol.rtol * PLS_MAX (pscale, PLS_MAX (fabs (x0), fabs (m->p[c])));
+      r = fabs (d) / sc;
 
       if (!(r <= worst))
         {

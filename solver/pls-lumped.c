@@ -230,7 +230,7 @@ pls_model_alloc (pls__model *m)
     return PLS_ERR_NOMEM;
   {
     double **nv[] = { &m->p, &m->p0, &m->pg, &m->hist_v, &m->fv0, &m->fvg, &m->fv1,
-                      &m->rn, &m->dp, &m->ev, &m->pred_p0, &m->pred_pg };
+                      &m->rn, &m->dp, &m->ev, &m->pred_p0, &m->pred_pg, &m->xs };
     double **lv[] = { &m->q, &m->q0, &m->qg, &m->hist_q, &m->fq0, &m->fqg, &m->fq1,
                       &m->g, &m->rl, &m->dq, &m->eq, &m->h, &m->dh, &m->qint,
                       &m->stroke, &m->gap_end, &m->pred_q0, &m->pred_qg };
@@ -272,7 +272,7 @@ pls__model_free (pls__model *m)
     double *v[] = { m->p, m->p0, m->pg, m->hist_v, m->fv0, m->fvg, m->fv1, m->rn, m->dp,
                     m->ev, m->q, m->q0, m->qg, m->hist_q, m->fq0, m->fqg, m->fq1, m->g,
                     m->rl, m->dq, m->eq, m->h, m->dh, m->qint, m->stroke,
-                    m->gap_end, m->pred_p0, m->pred_pg, m->pred_q0, m->pred_qg };
+                    m->gap_end, m->pred_p0, m->pred_pg, m->pred_q0, m->pred_qg, m->xs };
     size_t i;
 
     for (i = 0; i < sizeof v / sizeof v[0]; i++)
@@ -549,6 +549,8 @@ pls__model_new (const pls_network *net, const pls__model_options *o, pls__model 
                 pls_laminar_shortcut (&net->fluid, &e->u.line, l->scale, l);
                 m->nodes[na].compliance += 0.5 * cp * dx;
                 m->nodes[nb].compliance += 0.5 * cp * dx;
+                m->nodes[na].volume += 0.5 * area * dx;
+                m->nodes[nb].volume += 0.5 * area * dx;
                 if (s < n - 1)
                   {
                     pls__tnode *nd = &m->nodes[nb];
@@ -637,7 +639,12 @@ pls__model_new (const pls_network *net, const pls__model_options *o, pls__model 
           continue;
         }
       if (nd->compliance < PLS_NODE_FLOOR_VOLUME / net->fluid.bulk_modulus && nd->acc < 0)
-        nd->compliance += PLS_NODE_FLOOR_VOLUME / net->fluid.bulk_modulus;
+        {
+          nd->compliance += PLS_NODE_FLOOR_VOLUME / net->fluid.bulk_modulus;
+          nd->volume += PLS_NODE_FLOOR_VOLUME;
+        }
+      if (nd->acc < 0)
+        pls__pocket_init (nd);
       nd->col = (int) m->nf;
       m->col_node[m->nf++] = (int) i;
     }
