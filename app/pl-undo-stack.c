@@ -373,8 +373,8 @@ pl_undo_stack_get_redo_label (PlUndoStack *stack)
   return ((Step *) g_ptr_array_index (stack->steps, stack->pos))->label;
 }
 
-/* A step's label with the parts it acted on: "Change Bore of H2" for one
- * part, "Move 3 Parts" for several (wires and notes that went with them
+/* A step's label with the parts it acted on: "Change Bore H2", "Delete
+ * H2" for one part, "Move 3 Parts" for several (wires and notes that went with them
  * are not counted), "Delete 2 Items" for wires or notes alone; the bare
  * label when it names nothing, or one wire or note. */
 static char *
@@ -398,8 +398,9 @@ step_describe (const Step *step)
         only_tag = tag;
       }
   if (n_parts == 1)
-    /* Translators: an edit and the tag of the part it changed, "Change Bore of H2". */
-    return g_strdup_printf (_("%s of %s"), step->label, only_tag);
+    /* Translators: an edit and the tag of the part it acted on, "Change Bore
+     * H2", "Delete H2", "Move H2". */
+    return g_strdup_printf (C_("edit and part", "%s %s"), step->label, only_tag);
   if (n_parts > 1)
     /* Translators: an edit and how many parts it changed, "Move 3 Parts". */
     return g_strdup_printf (ngettext ("%s %u Part", "%s %u Parts", n_parts), step->label,

@@ -56,7 +56,7 @@ gboolean pl_undo_stack_can_redo (PlUndoStack *stack);
 const char *pl_undo_stack_get_undo_label (PlUndoStack *stack);
 const char *pl_undo_stack_get_redo_label (PlUndoStack *stack);
 /* The same labels with the parts the step acts on, by the tags they show
- * now: "Change Bore of H2", "Move 3 Parts" (wires and notes are counted,
+ * now: "Change Bore H2", "Move 3 Parts" (wires and notes are counted,
  * "Delete 2 Items", only when no part is among them; translated, free with g_free;
  * NULL when nothing to undo / redo).  Nothing notifies when only a tag
  * changes by other means than a push; a push of a rename does notify. */

@@ -285,7 +285,7 @@ pl_window_update_undo_tooltips (PlWindow *self)
 {
   g_autofree char *undo = pl_undo_stack_describe_undo (self->undo);
   g_autofree char *redo = pl_undo_stack_describe_redo (self->undo);
-  /* Translators: a button's tooltip naming the step, "Undo Change Bore of H2 (Ctrl+Z)". */
+  /* Translators: a button's tooltip naming the step, "Undo Change Bore H2 (Ctrl+Z)". */
   g_autofree char *undo_tip = undo != NULL ? g_strdup_printf (_("Undo %s (Ctrl+Z)"), undo)
                                            : g_strdup (_("Undo (Ctrl+Z)"));
   /* Translators: a button's tooltip naming the step, "Redo Move 3 Parts (Shift+Ctrl+Z)". */

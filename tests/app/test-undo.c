@@ -619,14 +619,14 @@ START_TEST (test_descriptions_name_the_parts)
   ck_assert (pl_undo_stack_push (stack, add_hose, NULL));
   hose_tag = pl_part_get_tag (pl_document_find_part (doc, "p1"));
   text = pl_undo_stack_describe_undo (stack);
-  expected_add = g_strdup_printf ("Add Hose of %s", hose_tag);
+  expected_add = g_strdup_printf ("Add Hose %s", hose_tag);
   ck_assert_str_eq (text, expected_add);
   g_clear_pointer (&text, g_free);
   ck_assert (pl_undo_stack_push (stack, add_gauge, NULL));
   ck_assert (pl_undo_stack_push (stack, add_tee, NULL));
   ck_assert (pl_undo_stack_push (stack, bore, NULL));
   text = pl_undo_stack_describe_undo (stack);
-  expected_bore = g_strdup_printf ("Change Bore of %s", hose_tag);
+  expected_bore = g_strdup_printf ("Change Bore %s", hose_tag);
   ck_assert_str_eq (text, expected_bore);
   g_clear_pointer (&text, g_free);
 
@@ -635,7 +635,7 @@ START_TEST (test_descriptions_name_the_parts)
   ck_assert (pl_undo_stack_undo (stack));
   ck_assert (pl_undo_stack_redo (stack));
   text = pl_undo_stack_describe_undo (stack);
-  ck_assert_str_eq (text, "Rename of Feed hose");
+  ck_assert_str_eq (text, "Rename Feed hose");
   g_clear_pointer (&text, g_free);
 
   /* A drag of three parts is one step named by their count. */
@@ -677,7 +677,7 @@ START_TEST (test_descriptions_of_removed_parts)
   ck_assert (pl_undo_stack_push (stack, add_b, NULL));
   ck_assert (pl_undo_stack_undo (stack));
   text = pl_undo_stack_describe_redo (stack);
-  ck_assert_str_eq (text, "Add Hose of HB");
+  ck_assert_str_eq (text, "Add Hose HB");
   g_clear_pointer (&text, g_free);
   ck_assert (pl_undo_stack_redo (stack));
 
@@ -690,7 +690,7 @@ START_TEST (test_descriptions_of_removed_parts)
 
   ck_assert (pl_undo_stack_push (stack, remove_a, NULL));
   text = pl_undo_stack_describe_undo (stack);
-  ck_assert_str_eq (text, "Delete of HA");
+  ck_assert_str_eq (text, "Delete HA");
   g_clear_pointer (&text, g_free);
   ck_assert (pl_undo_stack_undo (stack));
 
@@ -700,7 +700,7 @@ START_TEST (test_descriptions_of_removed_parts)
                                     2);
   ck_assert (pl_undo_stack_push (stack, remove_b, NULL));
   text = pl_undo_stack_describe_undo (stack);
-  ck_assert_str_eq (text, "Delete of HB");
+  ck_assert_str_eq (text, "Delete HB");
   g_clear_pointer (&text, g_free);
   ck_assert (pl_undo_stack_undo (stack));
 

@@ -340,6 +340,31 @@ peak_step (void *user_data, pls__model *m, double t0, double tg, double t1)
   return PLS_OK;
 }
 
+/* A reservoir R at p_r, the 25 x 2 mm steel tube of length 50 m and an
+ * applicator A1 of orifice diameter d at its end V: the set-up of the
+ * closure tests below. */
+static pls_network *
+reservoir_line_valve (const pls_fluid_params *f, double p_r, double d, int *v, int *app)
+{
+  pls_network *net = pls_network_new (f, NULL, NULL);
+  pls_line_params lp = pipe (50.0, 0.021, 0.002, 2.0e11);
+  pls_nozzle_params np;
+  pls_error err;
+  int res;
+
+  memset (&np, 0, sizeof np);
+  np.orifice_diameter = d;
+  np.orifice_length = 1e-3;
+  np.cd_model = PLS_CD_FIXED;
+  np.discharge_coefficient = 0.7;
+  res = pls_network_add_fixed_node (net, 0.0, p_r, "R", NULL);
+  *v = pls_network_add_node (net, 0.0, "V", NULL);
+  ck_assert_int_ge (pls_network_add_line (net, res, *v, &lp, "P1", NULL), 0);
+  *app = pls_network_add_nozzle (net, *v, &np, "A1", &err);
+  ck_assert_msg (*app >= 0, "%s", err.message);
+  return net;
+}
+
 /* Sudden closure: reservoir at 10 bar, 50 m of that tube, an applicator
  * passing about 1 m/s; the valve closes in t_c = 5 ms (against 2 L / c =
  * 72 ms).  The surge at the valve before the reflection returns is
@@ -356,26 +381,15 @@ static const int surge_n[] = { 16, 64, 256 };
 START_TEST (test_joukowsky_surge)
 {
   pls_fluid_params f = fluid (1000.0, 2.15e9, 1e-3);
-  pls_network *net = pls_network_new (&f, NULL, NULL);
   pls_line_params lp = pipe (50.0, 0.021, 0.002, 2.0e11);
-  pls_nozzle_params np;
   pls__schedule s = { 0 };
-  int res, v, app, n = surge_n[_i];
+  int v, app, n = surge_n[_i];
+  pls_network *net = reservoir_line_valve (&f, 10e5, 3.75e-3, &v, &app);
   double c, v0, p_before, dj, tol, area = 0.25 * PLS_PI * 0.021 * 0.021, t_ret;
   peak_probe pk;
   pls__model *m;
   pls_error err;
 
-  memset (&np, 0, sizeof np);
-  np.orifice_diameter = 3.75e-3;
-  np.orifice_length = 1e-3;
-  np.cd_model = PLS_CD_FIXED;
-  np.discharge_coefficient = 0.7;
-  res = pls_network_add_fixed_node (net, 0.0, 10e5, "R", NULL);
-  v = pls_network_add_node (net, 0.0, "V", NULL);
-  ck_assert_int_ge (pls_network_add_line (net, res, v, &lp, "P1", NULL), 0);
-  app = pls_network_add_nozzle (net, v, &np, "A1", &err);
-  ck_assert_int_ge (app, 0);
   m = model_for (net, n, 1e-5, 1.0, 1e-10);
   s.kind = PLS__SCHED_OPEN;
   ck_assert_msg (pls__settle (m, &s, 0.0, &err) == PLS_OK, "%s", err.message);
@@ -473,27 +487,16 @@ cavity_step (void *user_data, pls__model *m, double t0, double tg, double t1)
 START_TEST (test_column_separation)
 {
   pls_fluid_params f = fluid (1000.0, 2.15e9, 1e-3);
-  pls_network *net = pls_network_new (&f, NULL, NULL);
   pls_line_params lp = pipe (50.0, 0.021, 0.002, 2.0e11);
-  pls_nozzle_params np;
   pls__schedule s = { 0 };
   const double p_r = 5e5, p_v = -101325.0, t_c = 1e-3, ramp = 2e-3;
+  int v, app;
+  pls_network *net = reservoir_line_valve (&f, p_r, 4.6e-3, &v, &app);
   double c, v0, p_before, area = 0.25 * PLS_PI * 0.021 * 0.021, t_ret, lo, hi, rc;
   cavity_probe cp;
-  int res, v, app;
   pls__model *m;
   pls_error err;
 
-  memset (&np, 0, sizeof np);
-  np.orifice_diameter = 4.6e-3;
-  np.orifice_length = 1e-3;
-  np.cd_model = PLS_CD_FIXED;
-  np.discharge_coefficient = 0.7;
-  res = pls_network_add_fixed_node (net, 0.0, p_r, "R", NULL);
-  v = pls_network_add_node (net, 0.0, "V", NULL);
-  ck_assert_int_ge (pls_network_add_line (net, res, v, &lp, "P1", NULL), 0);
-  app = pls_network_add_nozzle (net, v, &np, "A1", &err);
-  ck_assert_int_ge (app, 0);
   m = model_for (net, 64, 1e-5, 1.0, 1e-10);
   s.kind = PLS__SCHED_OPEN;
   ck_assert_msg (pls__settle (m, &s, 0.0, &err) == PLS_OK, "%s", err.message);

@@ -326,14 +326,14 @@ START_TEST (test_undo_tooltips_name_the_step)
   ck_assert_str_eq (gtk_widget_get_tooltip_text (undo_button), "Undo (Ctrl+Z)");
   ck_assert (pl_undo_stack_push (undo, bore, NULL));
   ck_assert_str_eq (gtk_widget_get_tooltip_text (undo_button),
-                    "Undo Change Bore of H1 (Ctrl+Z)");
+                    "Undo Change Bore H1 (Ctrl+Z)");
   ck_assert (pl_undo_stack_push (undo, move, NULL));
   ck_assert_str_eq (gtk_widget_get_tooltip_text (undo_button), "Undo Move 3 Parts (Ctrl+Z)");
   activate (window, "win.undo");
   ck_assert_str_eq (gtk_widget_get_tooltip_text (redo_button),
                     "Redo Move 3 Parts (Shift+Ctrl+Z)");
   ck_assert_str_eq (gtk_widget_get_tooltip_text (undo_button),
-                    "Undo Change Bore of H1 (Ctrl+Z)");
+                    "Undo Change Bore H1 (Ctrl+Z)");
   close_window (window);
 }
 END_TEST
