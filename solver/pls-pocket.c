@@ -16,9 +16,12 @@
  * 2006; all from memory): every liquid node holds a small free gas volume,
  * alpha V at one atmosphere, that follows Boyle's law on the pressure
  * above the vapour pressure, Vg = alpha V p_atm / (p - p_v).  At working
- * pressures it is nothing (alpha 1e-7: 1e-12 of the node at 100 bar); near
- * vacuum it grows without bound, so the pressure stays above p_v and the
- * node's volume balance goes into the pocket, which is then the cavity.
+ * pressures it is nothing (alpha 1e-7: 1e-12 of the node at 100 bar), so
+ * the model counts only its growth below one atmosphere, with a tangent
+ * taken off that makes it vanish smoothly there (pls__pocket_volume);
+ * near vacuum it grows without bound, so the pressure stays above p_v and
+ * the node's volume balance goes into the pocket, which is then the
+ * cavity.
  * Unlike a vapour cavity switched in and out as an event, the pocket is a
  * smooth part of the node's stored volume V(p), so the integrator's error
  * control and Newton see no corner and nodes that sit near vacuum in a
