@@ -38,7 +38,7 @@ static const PlCliCommand pl_cli_commands[] = {
   { "check", N_("Check a layout; exit 1 if a finding of error severity exists (FILE)"),
     pl_cli_check },
   { "export", N_("Write the work order sheets of a layout (FILE -o OUT.pdf|OUT.svg|OUT.png "
-                 "[--paper a4|letter|a3] [--orientation portrait|landscape] [--dpi N] "
+                 "[--paper a4|letter|a3] [--orientation auto|portrait|landscape] [--dpi N] "
                  "[--units si|us]); SVG and PNG get a file per sheet, OUT-2.png and so on"),
     pl_cli_export },
   { NULL, NULL, NULL },
@@ -216,7 +216,7 @@ pl_cli_check (int argc, char **argv)
   return pl_results_count_findings (results, PLS_SEVERITY_ERROR) > 0 ? 1 : 0;
 }
 
-/* export FILE -o OUT [--paper a4|letter|a3] [--orientation portrait|landscape]
+/* export FILE -o OUT [--paper a4|letter|a3] [--orientation auto|portrait|landscape]
  * [--dpi N] [--units si|us]: the work order, its format from OUT's
  * extension.  Every solve runs first (the cycle too), so the sheets can
  * give the readings while firing.  Exit 0 when written, 2 when the
@@ -227,7 +227,7 @@ pl_cli_export (int argc, char **argv)
 {
   const char *filename = NULL, *output = NULL;
   PlPaper paper = PL_PAPER_A4;
-  PlOrientation orientation = PL_ORIENTATION_PORTRAIT;
+  PlOrientation orientation = PL_ORIENTATION_AUTO;
   PlWorkOrderFormat format;
   PlWorkOrderOptions opts;
   double dpi = PL_WORK_ORDER_DEFAULT_DPI;
@@ -235,6 +235,7 @@ pl_cli_export (int argc, char **argv)
   g_autoptr (PlDocument) doc = NULL;
   g_autoptr (PlResults) results = NULL;
   g_autoptr (PlWorkOrder) wo = NULL;
+  g_autoptr (GPtrArray) removed = NULL;
   g_autoptr (GError) error = NULL;
 
   pl_work_order_options_init (&opts);
@@ -265,7 +266,7 @@ pl_cli_export (int argc, char **argv)
           orientation = pl_orientation_from_key (value);
           if (orientation == PL_N_ORIENTATIONS)
             {
-              pl_cli_usage_error (argv[0], _("--orientation takes portrait or landscape."));
+              pl_cli_usage_error (argv[0], _("--orientation takes auto, portrait or landscape."));
               return 2;
             }
         }
@@ -331,14 +332,20 @@ pl_cli_export (int argc, char **argv)
       fprintf (stderr, "pressline-cli: %s: %s\n", filename, error->message);
       return 2;
     }
-  pl_paper_get_size (paper, orientation, &opts.width_mm, &opts.height_mm);
+  pl_paper_get_size (paper, pl_orientation_resolve (orientation, paper, doc), &opts.width_mm,
+                     &opts.height_mm);
   opts.file_name = filename;
   wo = pl_work_order_new (doc, results, &opts);
-  if (!pl_work_order_write (wo, format, dpi, output, &error))
+  removed = g_ptr_array_new_with_free_func (g_free);
+  if (!pl_work_order_write_full (wo, format, dpi, output, removed, &error))
     {
       fprintf (stderr, "pressline-cli: %s\n", error->message);
       return 2;
     }
+  for (guint i = 0; i < removed->len; i++)
+    /* Translators: %s is a file name. */
+    printf (_("Removed %s, a sheet left from an earlier export with more sheets.\n"),
+            (const char *) g_ptr_array_index (removed, i));
   return 0;
 }
 

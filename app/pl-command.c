@@ -207,6 +207,69 @@ pl_command_get_label (PlCommand *cmd)
   return cmd->label;
 }
 
+/* The tag a part shows on the canvas now, or the one it had when this
+ * command took it out or had not yet made it; NULL for anything but a
+ * placed part (wires, notes, the pseudo parts). */
+static const char *
+subject_tag (PlCommand *cmd, const char *id)
+{
+  PlPart *part = cmd->doc != NULL ? pl_document_find_part_mut (cmd->doc, id, NULL) : NULL;
+
+  if (part != NULL)
+    return part->tag[0] != '\0' ? part->tag : NULL;
+  for (guint i = 0; cmd->removed != NULL && i < cmd->removed->len; i++)
+    {
+      Removed *r = &g_array_index (cmd->removed, Removed, i);
+
+      if (r->kind == ITEM_PART && g_strcmp0 (((PlPart *) r->item)->id, id) == 0)
+        return ((PlPart *) r->item)->tag;
+    }
+  if (cmd->kind == CMD_ADD_PART && g_strcmp0 (cmd->created_id, id) == 0)
+    return cmd->created_tag;
+  return NULL;
+}
+
+static void
+add_subject (PlCommand *cmd, const char *id, GHashTable *subjects)
+{
+  if (id == NULL || g_str_equal (id, "scenario") || g_str_equal (id, "title")
+      || g_hash_table_contains (subjects, id))
+    return;
+  g_hash_table_insert (subjects, g_strdup (id), g_strdup (subject_tag (cmd, id)));
+}
+
+void
+pl_command_add_subjects (PlCommand *cmd, GHashTable *subjects)
+{
+  g_return_if_fail (cmd != NULL);
+  g_return_if_fail (subjects != NULL);
+  switch (cmd->kind)
+    {
+    case CMD_ADD_PART:
+    case CMD_ADD_WIRE:
+    case CMD_ADD_NOTE:
+      add_subject (cmd, cmd->created_id, subjects);
+      break;
+    case CMD_REMOVE:
+    case CMD_MOVE:
+      for (guint i = 0; i < cmd->n_ids; i++)
+        add_subject (cmd, cmd->ids[i], subjects);
+      break;
+    case CMD_SEQUENCE:
+      for (guint i = 0; i < cmd->children->len; i++)
+        pl_command_add_subjects (g_ptr_array_index (cmd->children, i), subjects);
+      break;
+    case CMD_ORIENT:
+    case CMD_SET_TAG:
+    case CMD_SET_VALUE:
+    case CMD_SET_BENDS:
+    case CMD_SET_NOTE_TEXT:
+    default:
+      add_subject (cmd, cmd->id, subjects);
+      break;
+    }
+}
+
 const char *
 pl_command_get_created_id (PlCommand *cmd)
 {

@@ -39,6 +39,13 @@ void pl_command_revert (PlCommand *cmd, PlDocument *doc);
 
 /* Translated name of the edit for menus: "Add Hose", "Move", "Set Bore". */
 const char *pl_command_get_label (PlCommand *cmd);
+/* For naming an edit in menus and tooltips: adds to subjects (a table
+ * from item id to the part's tag, both strings it then owns; made with
+ * g_hash_table_new_full (g_str_hash, g_str_equal, g_free, g_free)) every
+ * item cmd acts on.  A placed part maps to its tag as shown now (or as it
+ * was when the command took it out or before it was made), a wire or a
+ * note to NULL; the pseudo parts are left out. */
+void pl_command_add_subjects (PlCommand *cmd, GHashTable *subjects);
 /* The id the last apply created (add part / wire / note), or NULL. */
 const char *pl_command_get_created_id (PlCommand *cmd);
 

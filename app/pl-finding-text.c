@@ -176,17 +176,17 @@ pl_finding_format_sentence (const PlFinding *f, const PlResults *results,
     }
   if (strcmp (code, "cycle-cavitation") == 0 || strcmp (code, "shutdown-cavitation") == 0)
     {
-      v = fmt (f->value, PL_QUANTITY_PRESSURE, prefs);
-      l = fmt (f->limit, PL_QUANTITY_PRESSURE, prefs);
+      v = fmt (f->value, PL_QUANTITY_VOLUME, prefs);
       if (code[0] == 'c')
-        return g_strdup_printf (_("%s falls to %s in the firing cycle. A liquid parts "
-                                  "(cavitates) below about %s, which the model does not "
-                                  "follow: expect noise, wear and worse dosing there, and "
-                                  "treat the figures near it as rough."), tag, v, l);
-      return g_strdup_printf (_("%s falls to %s after the air goes off: the wave from the "
-                                "opening dump valve would part the liquid (cavitate) below "
-                                "about %s, which the model does not follow, so the drain "
-                                "figures near it are rough."), tag, v, l);
+        return g_strdup_printf (_("The liquid parts (cavitates) at %s in the firing cycle: a "
+                                  "cavity of up to %s opens near vacuum, and the columns meet "
+                                  "again with a pressure spike. Expect noise, wear and worse "
+                                  "dosing there."), tag, v);
+      return g_strdup_printf (_("The liquid parts (cavitates) at %s after the air goes off: "
+                                "the wave from the opening dump valve opens a cavity of up to "
+                                "%s near vacuum, and the columns meet again with a pressure "
+                                "spike. A slower dump valve or a restrictor in its line "
+                                "softens it."), tag, v);
     }
   /* part-invalid, scenario-invalid, elevation-mismatch, solve-failed are
    * written translated by app/; anything else keeps the solver's words. */

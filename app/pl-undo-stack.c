@@ -373,6 +373,63 @@ pl_undo_stack_get_redo_label (PlUndoStack *stack)
   return ((Step *) g_ptr_array_index (stack->steps, stack->pos))->label;
 }
 
+/* A step's label with the parts it acted on: "Change Bore H2", "Delete
+ * H2" for one part, "Move 3 Parts" for several (wires and notes that went with them
+ * are not counted), "Delete 2 Items" for wires or notes alone; the bare
+ * label when it names nothing, or one wire or note. */
+static char *
+step_describe (const Step *step)
+{
+  g_autoptr (GHashTable) subjects = g_hash_table_new_full (g_str_hash, g_str_equal,
+                                                           g_free, g_free);
+  GHashTableIter iter;
+  gpointer tag;
+  guint n, n_parts = 0;
+  const char *only_tag = NULL;
+
+  for (guint i = 0; i < step->commands->len; i++)
+    pl_command_add_subjects (g_ptr_array_index (step->commands, i), subjects);
+  n = g_hash_table_size (subjects);
+  g_hash_table_iter_init (&iter, subjects);
+  while (g_hash_table_iter_next (&iter, NULL, &tag))
+    if (tag != NULL)
+      {
+        n_parts++;
+        only_tag = tag;
+      }
+  if (n_parts == 1)
+    /* Translators: an edit and the tag of the part it acted on, "Change Bore
+     * H2", "Delete H2", "Move H2". */
+    return g_strdup_printf (C_("edit and part", "%s %s"), step->label, only_tag);
+  if (n_parts > 1)
+    /* Translators: an edit and how many parts it changed, "Move 3 Parts". */
+    return g_strdup_printf (ngettext ("%s %u Part", "%s %u Parts", n_parts), step->label,
+                            n_parts);
+  if (n > 1)
+    /* Translators: an edit and how many wires and notes it changed,
+     * "Delete 2 Items". */
+    return g_strdup_printf (ngettext ("%s %u Item", "%s %u Items", n), step->label, n);
+  return g_strdup (step->label);
+}
+
+char *
+pl_undo_stack_describe_undo (PlUndoStack *stack)
+{
+  g_return_val_if_fail (PL_IS_UNDO_STACK (stack), NULL);
+  if (!pl_undo_stack_can_undo (stack))
+    return NULL;
+  return step_describe (g_ptr_array_index (stack->steps, stack->pos - 1));
+}
+
+char *
+pl_undo_stack_describe_redo (PlUndoStack *stack)
+{
+  g_return_val_if_fail (PL_IS_UNDO_STACK (stack), NULL);
+  if (!pl_undo_stack_can_redo (stack))
+    return NULL;
+  return step_describe (g_ptr_array_index (stack->steps, stack->pos));
+}
+
 guint
 pl_undo_stack_get_n_undo (PlUndoStack *stack)
 {

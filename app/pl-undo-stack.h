@@ -55,6 +55,13 @@ gboolean pl_undo_stack_can_redo (PlUndoStack *stack);
 /* Translated labels of the next undo / redo step, or NULL. */
 const char *pl_undo_stack_get_undo_label (PlUndoStack *stack);
 const char *pl_undo_stack_get_redo_label (PlUndoStack *stack);
+/* The same labels with the parts the step acts on, by the tags they show
+ * now: "Change Bore H2", "Move 3 Parts" (wires and notes are counted,
+ * "Delete 2 Items", only when no part is among them; translated, free with g_free;
+ * NULL when nothing to undo / redo).  Nothing notifies when only a tag
+ * changes by other means than a push; a push of a rename does notify. */
+char *pl_undo_stack_describe_undo (PlUndoStack *stack);
+char *pl_undo_stack_describe_redo (PlUndoStack *stack);
 /* Steps that undo / redo can take now (0 while a group is open). */
 guint pl_undo_stack_get_n_undo (PlUndoStack *stack);
 guint pl_undo_stack_get_n_redo (PlUndoStack *stack);

@@ -10,6 +10,8 @@
 #include "pl-work-order-private.h"
 
 #include <cairo-pdf.h>
+#include <glib/gstdio.h>
+#include <sys/stat.h>
 #include <cairo-svg.h>
 #include <glib/gi18n.h>
 #include <libxml/parser.h>
@@ -19,6 +21,17 @@
 
 /* PostScript points per mm: 72 per inch, 25.4 mm per inch. */
 #define PT_PER_MM (72.0 / 25.4)
+
+/* The generator mark every SVG and PNG sheet carries, so a later export
+ * knows which NAME-N files it may remove: in an SVG, an element in this
+ * namespace inside <metadata> (SVG 1.1 sec. 21); in a PNG, a tEXt chunk
+ * with the keyword "Software" (PNG, ISO/IEC 15948 sec. 11.3.4). */
+#define GENERATOR_NS "https://pressline.org/ns/work-order"
+#define GENERATOR_TEXT "Pressline " PACKAGE_VERSION
+#define GENERATOR_PREFIX "Pressline"
+/* Files larger than this are not read to look for the mark (they are not
+ * sheets of ours): 64 MiB, above a 600 dpi A3 PNG. */
+#define MARK_MAX_BYTES (64u << 20)
 
 static cairo_status_t
 append_bytes (void *closure, const unsigned char *data, unsigned int length)
@@ -115,7 +128,7 @@ add_svg_description (PlWorkOrder *wo, GByteArray *svg, guint sheet)
 {
   xmlDocPtr doc = xmlReadMemory ((const char *) svg->data, (int) svg->len, NULL, "UTF-8",
                                  XML_PARSE_NONET);
-  xmlNodePtr root, title, desc;
+  xmlNodePtr root, title, desc, metadata, generator;
   g_autofree char *name = document_title (wo);
   /* Translators: an SVG sheet's title, "Work order DEMO-0001, sheet 2 of 3". */
   g_autofree char *heading = g_strdup_printf (_("%s, sheet %u of %u"), name, sheet + 1,
@@ -134,15 +147,21 @@ add_svg_description (PlWorkOrder *wo, GByteArray *svg, guint sheet)
   xmlNodeAddContent (title, (const xmlChar *) heading);
   desc = xmlNewDocNode (doc, root->ns, (const xmlChar *) "desc", NULL);
   xmlNodeAddContent (desc, (const xmlChar *) text);
+  metadata = xmlNewDocNode (doc, root->ns, (const xmlChar *) "metadata", NULL);
+  generator = xmlNewChild (metadata, NULL, (const xmlChar *) "generator",
+                           (const xmlChar *) GENERATOR_TEXT);
+  xmlSetNs (generator, xmlNewNs (generator, (const xmlChar *) GENERATOR_NS, NULL));
   if (root->children != NULL)
     {
-      xmlAddPrevSibling (root->children, desc);
+      xmlAddPrevSibling (root->children, metadata);
+      xmlAddPrevSibling (metadata, desc);
       xmlAddPrevSibling (desc, title);
     }
   else
     {
       xmlAddChild (root, title);
       xmlAddChild (root, desc);
+      xmlAddChild (root, metadata);
     }
   xmlDocDumpMemoryEnc (doc, &out, &len, "UTF-8");
   xmlFreeDoc (doc);
@@ -179,6 +198,65 @@ render_svg (PlWorkOrder *wo, guint sheet, const char *filename, GError **error)
   return add_svg_description (wo, bytes, sheet);
 }
 
+/* CRC-32 of PNG chunks (ISO/IEC 15948 Annex D: polynomial 0xedb88320,
+ * reflected, initial and final XOR 0xffffffff). */
+static guint32
+png_crc (const guint8 *data, gsize length)
+{
+  guint32 c = 0xffffffffu;
+
+  for (gsize i = 0; i < length; i++)
+    {
+      c ^= data[i];
+      for (int k = 0; k < 8; k++)
+        c = (c & 1u) ? 0xedb88320u ^ (c >> 1) : c >> 1;
+    }
+  return c ^ 0xffffffffu;
+}
+
+static void
+put_be32 (guint8 *p, guint32 v)
+{
+  p[0] = (guint8) (v >> 24);
+  p[1] = (guint8) (v >> 16);
+  p[2] = (guint8) (v >> 8);
+  p[3] = (guint8) v;
+}
+
+static guint32
+get_be32 (const guint8 *p)
+{
+  return ((guint32) p[0] << 24) | ((guint32) p[1] << 16) | ((guint32) p[2] << 8) | p[3];
+}
+
+#define PNG_SIGNATURE_LENGTH 8
+#define PNG_IHDR_END (PNG_SIGNATURE_LENGTH + 4 + 4 + 13 + 4)
+
+/* Puts a tEXt "Software" chunk right after the IHDR chunk that cairo
+ * writes first (a chunk: length, type, data, CRC of type and data). */
+static void
+add_png_software (GByteArray *png)
+{
+  static const char keyword[] = "Software";
+  gsize data_len = sizeof keyword + strlen (GENERATOR_TEXT);   /* keyword, NUL, text */
+  g_autofree guint8 *chunk = g_malloc (12 + data_len);
+
+  if (png->len < PNG_IHDR_END || memcmp (png->data + 12, "IHDR", 4) != 0)
+    return;
+  put_be32 (chunk, (guint32) data_len);
+  memcpy (chunk + 4, "tEXt", 4);
+  memcpy (chunk + 8, keyword, sizeof keyword);
+  memcpy (chunk + 8 + sizeof keyword, GENERATOR_TEXT, strlen (GENERATOR_TEXT));
+  put_be32 (chunk + 8 + data_len, png_crc (chunk + 4, 4 + data_len));
+  {
+    guint tail = png->len - PNG_IHDR_END;
+
+    g_byte_array_set_size (png, png->len + (guint) (12 + data_len));
+    memmove (png->data + PNG_IHDR_END + 12 + data_len, png->data + PNG_IHDR_END, tail);
+    memcpy (png->data + PNG_IHDR_END, chunk, 12 + data_len);
+  }
+}
+
 static GByteArray *
 render_png (PlWorkOrder *wo, guint sheet, double dpi, const char *filename, GError **error)
 {
@@ -200,12 +278,112 @@ render_png (PlWorkOrder *wo, guint sheet, double dpi, const char *filename, GErr
   cairo_surface_destroy (surface);
   if (render_failed (status, filename, error))
     return NULL;
+  add_png_software (bytes);
   return g_steal_pointer (&bytes);
+}
+
+/* --- removing sheets of an earlier export --- */
+
+static gboolean
+png_has_mark (const guint8 *data, gsize length)
+{
+  static const guint8 signature[PNG_SIGNATURE_LENGTH] = { 0x89, 'P', 'N', 'G', '\r', '\n',
+                                                          0x1a, '\n' };
+  gsize pos = PNG_SIGNATURE_LENGTH;
+
+  if (length < PNG_SIGNATURE_LENGTH || memcmp (data, signature, sizeof signature) != 0)
+    return FALSE;
+  while (pos + 12 <= length)
+    {
+      guint32 n = get_be32 (data + pos);
+      const guint8 *type = data + pos + 4;
+
+      if (n > length - pos - 12)
+        return FALSE;
+      if (memcmp (type, "IDAT", 4) == 0 || memcmp (type, "IEND", 4) == 0)
+        return FALSE;
+      if (memcmp (type, "tEXt", 4) == 0 && n > 9 && memcmp (type + 4, "Software", 9) == 0
+          && n - 9 >= strlen (GENERATOR_PREFIX)
+          && memcmp (type + 4 + 9, GENERATOR_PREFIX, strlen (GENERATOR_PREFIX)) == 0)
+        return TRUE;
+      pos += 12 + n;
+    }
+  return FALSE;
+}
+
+static gboolean
+svg_has_mark (const char *data, gsize length)
+{
+  xmlDocPtr doc = xmlReadMemory (data, (int) length, NULL, NULL, XML_PARSE_NONET
+                                 | XML_PARSE_NOERROR | XML_PARSE_NOWARNING);
+  xmlNodePtr root = doc != NULL ? xmlDocGetRootElement (doc) : NULL;
+  gboolean found = FALSE;
+
+  for (xmlNodePtr m = root != NULL ? root->children : NULL; m != NULL && !found; m = m->next)
+    {
+      if (m->type != XML_ELEMENT_NODE || !xmlStrEqual (m->name, (const xmlChar *) "metadata"))
+        continue;
+      for (xmlNodePtr g = m->children; g != NULL && !found; g = g->next)
+        if (g->type == XML_ELEMENT_NODE && g->ns != NULL
+            && xmlStrEqual (g->ns->href, (const xmlChar *) GENERATOR_NS)
+            && xmlStrEqual (g->name, (const xmlChar *) "generator"))
+          {
+            xmlChar *text = xmlNodeGetContent (g);
+
+            found = text != NULL && g_str_has_prefix ((const char *) text, GENERATOR_PREFIX);
+            xmlFree (text);
+          }
+    }
+  xmlFreeDoc (doc);
+  return found;
+}
+
+/* Whether filename is a regular file that a work order export of this
+ * format wrote (it carries the generator mark). */
+static gboolean
+file_is_our_sheet (const char *filename, PlWorkOrderFormat format)
+{
+  g_autofree char *data = NULL;
+  gsize length = 0;
+  GStatBuf st;
+
+  if (g_lstat (filename, &st) != 0 || !S_ISREG (st.st_mode) || (guint64) st.st_size
+      > MARK_MAX_BYTES)
+    return FALSE;
+  if (!g_file_get_contents (filename, &data, &length, NULL))
+    return FALSE;
+  return format == PL_WORK_ORDER_PNG ? png_has_mark ((const guint8 *) data, length)
+                                     : svg_has_mark (data, length);
+}
+
+/* The sheets an earlier export of filename left beyond the n_sheets just
+ * written: NAME-K.EXT for K = n_sheets + 1, n_sheets + 2, ... as long as
+ * each is there and ours; the first gap or foreign file ends the run. */
+static void
+remove_stale_sheets (const char *filename, PlWorkOrderFormat format, guint n_sheets,
+                     GPtrArray *removed)
+{
+  for (guint k = n_sheets; k < G_MAXUINT; k++)
+    {
+      g_autofree char *name = pl_work_order_sheet_filename (filename, k);
+
+      if (!file_is_our_sheet (name, format) || g_unlink (name) != 0)
+        return;
+      if (removed != NULL)
+        g_ptr_array_add (removed, g_steal_pointer (&name));
+    }
 }
 
 gboolean
 pl_work_order_write (PlWorkOrder *self, PlWorkOrderFormat format, double dpi,
                      const char *filename, GError **error)
+{
+  return pl_work_order_write_full (self, format, dpi, filename, NULL, error);
+}
+
+gboolean
+pl_work_order_write_full (PlWorkOrder *self, PlWorkOrderFormat format, double dpi,
+                          const char *filename, GPtrArray *removed, GError **error)
 {
   g_autoptr (GPtrArray) files = g_ptr_array_new_with_free_func (g_free);
   g_autoptr (GPtrArray) contents = g_ptr_array_new_with_free_func (
@@ -259,5 +437,7 @@ pl_work_order_write (PlWorkOrder *self, PlWorkOrderFormat format, double dpi,
           return FALSE;
         }
     }
+  if (format != PL_WORK_ORDER_PDF)
+    remove_stale_sheets (filename, format, files->len, removed);
   return TRUE;
 }

@@ -8,6 +8,7 @@
 
 #include "pl-work-order.h"
 #include "pl-work-order-private.h"
+#include "pl-geometry.h"
 
 #include <glib/gi18n.h>
 #include <string.h>
@@ -31,7 +32,8 @@ static const struct
   { "a3", N_("A3 (297 × 420 mm)"), 297.0, 420.0 },
 };
 
-static const char *const orientation_keys[PL_N_ORIENTATIONS] = { "portrait", "landscape" };
+static const char *const orientation_keys[PL_N_ORIENTATIONS] = { "portrait", "landscape",
+                                                                  "auto" };
 static const char *const format_keys[PL_N_WORK_ORDER_FORMATS] = { "pdf", "svg", "png" };
 
 static guint
@@ -84,6 +86,22 @@ pl_paper_get_size (PlPaper paper, PlOrientation orientation, double *width_mm,
     *width_mm = w;
   if (height_mm != NULL)
     *height_mm = h;
+}
+
+PlOrientation
+pl_orientation_resolve (PlOrientation orientation, PlPaper paper, PlDocument *doc)
+{
+  double w, h;
+  PlRect extent;
+
+  if (orientation != PL_ORIENTATION_AUTO)
+    return orientation;
+  g_return_val_if_fail ((guint) paper < PL_N_PAPERS, PL_ORIENTATION_PORTRAIT);
+  if (doc == NULL || !pl_geometry_document_bounds (doc, &extent))
+    return PL_ORIENTATION_PORTRAIT;
+  pl_paper_get_size (paper, PL_ORIENTATION_PORTRAIT, &w, &h);
+  return extent.x1 - extent.x0 > (extent.y1 - extent.y0) * (h / w) ? PL_ORIENTATION_LANDSCAPE
+                                                : PL_ORIENTATION_PORTRAIT;
 }
 
 const char *

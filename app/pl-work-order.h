@@ -21,7 +21,8 @@
  * Multi-sheet SVG and PNG: neither format has pages, so each sheet is its
  * own file at the paper's size: sheet one in the file named, sheet N in the
  * same name with "-N" before the extension (work.png, work-2.png, ...).
- * PDF holds every sheet as a page.
+ * Each carries a generator mark, by which a later export with fewer
+ * sheets removes the ones left over.  PDF holds every sheet as a page.
  */
 #pragma once
 
@@ -56,6 +57,7 @@ typedef enum
 {
   PL_ORIENTATION_PORTRAIT,
   PL_ORIENTATION_LANDSCAPE,
+  PL_ORIENTATION_AUTO,        /* by the diagram's shape: pl_orientation_resolve */
   PL_N_ORIENTATIONS
 } PlOrientation;
 
@@ -67,7 +69,7 @@ typedef enum
   PL_N_WORK_ORDER_FORMATS
 } PlWorkOrderFormat;
 
-/* Stable ASCII keys: "a4", "letter", "a3"; "portrait", "landscape"; "pdf",
+/* Stable ASCII keys: "a4", "letter", "a3"; "portrait", "landscape", "auto"; "pdf",
  * "svg", "png" (also the file name extensions).  NULL out of range; the
  * from_key functions give the PL_N_ value for an unknown key. */
 const char *pl_paper_get_key (PlPaper paper);
@@ -75,9 +77,16 @@ PlPaper pl_paper_from_key (const char *key);
 /* Translated name, "A4 (210 × 297 mm)". */
 const char *pl_paper_get_label (PlPaper paper);
 /* Width and height (mm) of the paper in that orientation: ISO 216 A4
- * 210 x 297 and A3 297 x 420; ANSI/ASME Y14.1 Letter 8.5 x 11 in. */
+ * 210 x 297 and A3 297 x 420; ANSI/ASME Y14.1 Letter 8.5 x 11 in.
+ * PL_ORIENTATION_AUTO gives portrait: resolve it first. */
 void pl_paper_get_size (PlPaper paper, PlOrientation orientation, double *width_mm,
                         double *height_mm);
+/* Portrait or landscape: orientation itself unless it is AUTO; for AUTO
+ * landscape when the diagram's extent (pl_geometry_document_bounds) is
+ * wider than tall by more than the paper's aspect (long side over short
+ * side, about 1.41 for A4), else portrait (an empty layout too). */
+PlOrientation pl_orientation_resolve (PlOrientation orientation, PlPaper paper,
+                                      PlDocument *doc);
 const char *pl_orientation_get_key (PlOrientation orientation);
 PlOrientation pl_orientation_from_key (const char *key);
 const char *pl_work_order_format_get_key (PlWorkOrderFormat format);
@@ -134,5 +143,14 @@ char *pl_work_order_sheet_filename (const char *filename, guint index);
  * never leaves half a file.  FALSE with error naming the file. */
 gboolean pl_work_order_write (PlWorkOrder *self, PlWorkOrderFormat format, double dpi,
                               const char *filename, GError **error);
+/* The same; then, for SVG and PNG, the sheets an earlier export to the
+ * same name left beyond the new sheet count are removed: NAME-K.EXT for
+ * K past the count, one after the other while each exists and carries
+ * Pressline's generator mark (an SVG <metadata> element, a PNG tEXt
+ * "Software" chunk); the first gap or foreign file ends it, and nothing
+ * else is ever deleted.  removed (may be NULL) gets the names removed
+ * (newly allocated strings; the array frees them with g_free). */
+gboolean pl_work_order_write_full (PlWorkOrder *self, PlWorkOrderFormat format, double dpi,
+                                   const char *filename, GPtrArray *removed, GError **error);
 
 G_END_DECLS

@@ -244,6 +244,7 @@ typedef struct
   size_t next_sample;
   double *pint;       /* n_nodes: integral of p over the cycle */
   double *last_out;   /* n_nodes: last time out of the recovery band */
+  double *p_low;      /* model nodes: lowest pressure of the cycle */
   double frac;
 } pls_tracker;
 
@@ -263,6 +264,7 @@ pls_tracker_reset (pls_tracker *tr, pls__model *m, double t_start)
       tr->last_out[i] = -1.0;
       r->series[i * r->samples] = m->p[i];
     }
+  memcpy (tr->p_low, m->p, m->n_nodes * sizeof *tr->p_low);
   for (k = 0; k < r->n_elements; k++)
     r->flow_series[k * r->samples] = m->elem_link[k] >= 0 ? m->q[m->elem_link[k]] : 0.0;
   for (k = 0; k < r->n_elements; k++)
@@ -377,6 +379,7 @@ pls_track_step (void *user_data, pls__model *m, double t0, double tg, double t1)
           r->pump[k].max_flow = fmax (r->pump[k].max_flow, fmax (m->qg[l], m->q[l]));
         }
     }
+  pls__pocket_track (m, tr->p_low);
   return PLS_OK;
 }
 
@@ -513,8 +516,7 @@ pls_cycle_finish (pls_cycle_result *r, pls__model *m, pls_tracker *tr, double v_
           != PLS_OK)
         return PLS_ERR_NOMEM;
     }
-  if (pls__cavitation_finding (&r->findings, a, net, r->pmin, r->n_nodes,
-                               "cycle-cavitation", "firing cycle")
+  if (pls__pocket_finding (&r->findings, a, m, tr->p_low, "cycle-cavitation", "firing cycle")
       != PLS_OK)
     return PLS_ERR_NOMEM;
   for (k = 0; k < r->n_elements; k++)
@@ -876,10 +878,12 @@ pls_run_cycles (pls__model *m, const pls_transient_options *o, pls_cycle_result 
   rre.x = pls__calloc (a, (PLS_RRE_MAX + 2) * rre.n + 1, sizeof *rre.x);
   tr.pint = pls__calloc (a, r->n_nodes, sizeof (double));
   tr.last_out = pls__calloc (a, r->n_nodes, sizeof (double));
+  tr.p_low = pls__calloc (a, m->n_nodes, sizeof (double));
   memset (&ms, 0, sizeof ms);
   ms.p = pls__calloc (a, m->n_nodes, sizeof (double));
   ms.q = pls__calloc (a, m->n_links + 1, sizeof (double));
-  if (!app_delay || !pprev || !rre.x || !tr.pint || !tr.last_out || !ms.p || !ms.q)
+  if (!app_delay || !pprev || !rre.x || !tr.pint || !tr.last_out || !tr.p_low || !ms.p
+      || !ms.q)
     {
       st = pls__error (err, PLS_ERR_NOMEM, -1, -1, "out of memory in the cycle run");
       goto out;
@@ -966,6 +970,7 @@ out:
   pls__free (a, rre.x);
   pls__free (a, tr.pint);
   pls__free (a, tr.last_out);
+  pls__free (a, tr.p_low);
   pls__free (a, ms.p);
   pls__free (a, ms.q);
   return st;

@@ -47,33 +47,6 @@ pls__finding_add (pls_finding_list *list, const pls_allocator *a, pls_severity s
   return PLS_OK;
 }
 
-pls_status
-pls__cavitation_finding (pls_finding_list *list, const pls_allocator *a,
-                         const pls_network *net, const double *pmin, size_t n_nodes,
-                         const char *code, const char *run)
-{
-  size_t i, n_below = 0;
-  int worst = -1;
-  char label[96];
-
-  for (i = 0; i < n_nodes; i++)
-    if (pmin[i] < PLS_CAVITATION_PRESSURE)
-      {
-        n_below++;
-        if (worst < 0 || pmin[i] < pmin[worst])
-          worst = (int) i;
-      }
-  if (worst < 0)
-    return PLS_OK;
-  pls__node_label (net, worst, label, sizeof label);
-  return pls__finding_add (list, a, PLS_SEVERITY_WARNING, code, -1, worst,
-                           pmin[worst], PLS_CAVITATION_PRESSURE,
-                           "%s falls to %.4g bar gauge in the %s: a liquid parts below "
-                           "about -1 bar gauge (column separation), which the model does "
-                           "not follow (%zu node%s in all)", label, pmin[worst] / 1e5, run,
-                           n_below, n_below == 1 ? "" : "s");
-}
-
 static double
 pls_rating (const pls_element *e)
 {

@@ -364,15 +364,29 @@ static pls_status pls_algebraic_flow (const pls__model *m, size_t k, double dp, 
 
 /* After an update: 1 if the balance V(p) - hist_v = kappa * inflow of
  * every accumulator's gas chamber holds to PLS_CHAMBER_BALANCE of the
- * volume its pressure tolerance stands for.  The other nodes' stored
- * volumes are linear in the pressure, so their balances hold exactly
- * after every linear update; a chamber's is off by the curvature of its
- * gas law over the update, which only a further update removes. */
+ * volume its pressure tolerance stands for, and no liquid node's gas
+ * pocket takes part.  A liquid node's stored volume is linear in the
+ * pressure while its pocket is empty (above one atmosphere absolute) and
+ * the factored slope is that line's, so its balance holds exactly after
+ * every linear update (and after pls_pocket_update's, which keeps the
+ * linear volume change, but not between the two); a chamber's is off by
+ * the curvature of its gas law over the update, which only a further
+ * update removes. */
 static int
 pls_chambers_balanced (const pls__model *m, double kappa, double pscale)
 {
   const pls__tolerances *tol = &m->tol;
   size_t j;
+
+  for (j = 0; j < m->nf; j++)
+    {
+      const pls__tnode *nd = &m->nodes[m->col_node[j]];
+
+      if (nd->pocket_g > 0.0
+          && (m->p[m->col_node[j]] - PLS_CAVITATION_PRESSURE < PLS_ATMOSPHERE
+              || m->ev[j] != nd->compliance))
+        return 0;
+    }
 
   for (j = 0; j < m->n_chambers; j++)
     {
@@ -388,6 +402,26 @@ pls_chambers_balanced (const pls__model *m, double kappa, double pscale)
         return 0;
     }
   return 1;
+}
+
+/* The Newton update of a node with a gas pocket, taken on its stored
+ * volume: the node's equation is linear in V, and V(p) goes as -1 / p_abs
+ * near vacuum, so a step on p itself overshoots far beyond vacuum from
+ * above and crawls back from below.  The volume change of the linear
+ * system solved, slope * dp (slope: the node's slope in the factored
+ * matrix), is kept and p follows from V exactly (pls__pocket_pressure).
+ * Where the pocket is negligible it is the plain step. */
+static void
+pls_pocket_update (pls__model *m, size_t n, double slope)
+{
+  const double near = PLS_CAVITATION_PRESSURE + PLS_POCKET_NEAR * PLS_ATMOSPHERE;
+  double p = m->p[n];
+
+  if (p > near && p + m->dp[n] > near)
+    return;
+  m->dp[n] = pls__pocket_pressure (&m->nodes[n], pls__node_volume (m, n, p, NULL)
+                                                   + slope * m->dp[n])
+             - p;
 }
 
 /* Newton on one stage: V(p) - hist_v = kappa * inflow at the free nodes,
@@ -414,6 +448,16 @@ pls_stage (pls__model *m, double kappa, int *converged, pls_error *err)
   if (tol->p_scale_global)
     for (i = 0; i < m->nf; i++)
       pscale = PLS_MAX (pscale, fabs (m->p[m->col_node[i]]));
+  /* A node's updates are measured against its own size at the step's
+   * start: an iterate (or a predicted start) far out on a gas pocket's law
+   * must not widen its own tolerance. */
+  for (i = 0; i < m->nf; i++)
+    {
+      size_t n = (size_t) m->col_node[i];
+
+      pls__node_measure (m, n, m->p0[n], 0.0, 0.0, &m->xs[n]);
+      m->xs[n] = fabs (m->xs[n]);
+    }
   for (k = 0; k < m->n_links; k++)
     m->on[k] = (unsigned char) pls_link_on (m, k);
   /* Every update's scale below is at least the scale of pscale or qscale
@@ -504,11 +548,14 @@ pls_stage (pls__model *m, double kappa, int *converged, pls_error *err)
       for (i = 0; i < m->nf; i++)
         {
           int n = m->col_node[i];
+          double xn, d;
 
-          if (fabs (m->dp[n]) * inv_pfloor > worst)
+          d = pls__node_measure (m, (size_t) n, m->p[n], m->dp[n], m->ev[i], &xn);
+          if (m->nodes[n].pocket_g > 0.0)
+            pls_pocket_update (m, (size_t) n, m->ev[i]);
+          if (fabs (d) * inv_pfloor > worst)
             {
-              double s = fabs (m->dp[n])
-                         / (tol->atol_p + tol->rtol * PLS_MAX (pscale, fabs (m->p[n])));
+              double s = fabs (d) / (tol->atol_p + tol->rtol * PLS_MAX (pscale, m->xs[n]));
 
               worst = s > worst ? s : worst;
             }
@@ -598,6 +645,18 @@ pls_stage (pls__model *m, double kappa, int *converged, pls_error *err)
   return PLS_OK;
 }
 
+/* A predicted pressure p of node i, or the known one when p would be near
+ * vacuum on a gas pocket's law, where an extrapolation in p is a poor
+ * guess and may land far beyond vacuum (pls_pocket_update). */
+static double
+pls_pocket_guess (const pls__model *m, size_t i, double p, double known)
+{
+  if (m->nodes[i].pocket_g > 0.0
+      && p < PLS_CAVITATION_PRESSURE + PLS_POCKET_NEAR * PLS_ATMOSPHERE)
+    return known;
+  return p;
+}
+
 /* Predictor of the first stage: the quadratic through the last accepted
  * step's three points (its dense output, as pls-cycle.c samples it),
  * extrapolated to tp.  The stage starts from y_n otherwise, an O(h)
@@ -619,7 +678,8 @@ pls_predict (pls__model *m, double tp)
   l1 = (tp - t0) * (tp - tg) / ((t1 - t0) * (t1 - tg));
   for (i = 0; i < m->n_nodes; i++)
     if (!m->nodes[i].fixed)
-      m->p[i] = l0 * m->pred_p0[i] + lg * m->pred_pg[i] + l1 * m->p0[i];
+      m->p[i] = pls_pocket_guess (m, i, l0 * m->pred_p0[i] + lg * m->pred_pg[i] + l1 * m->p0[i],
+                                  m->p0[i]);
   for (k = 0; k < m->n_links; k++)
     m->q[k] = l0 * m->pred_q0[k] + lg * m->pred_qg[k] + l1 * m->q0[k];
 }
@@ -670,7 +730,8 @@ pls_step (pls__model *m, const pls__schedule *s, double t, double h, int *conver
   /* Predictor: the line through the two known points. */
   for (i = 0; i < n; i++)
     if (!m->nodes[i].fixed)
-      m->p[i] = m->pg[i] + (m->pg[i] - m->p0[i]) * (1.0 - gam) / gam;
+      m->p[i] = pls_pocket_guess (m, i, m->pg[i] + (m->pg[i] - m->p0[i]) * (1.0 - gam) / gam,
+                                  m->pg[i]);
   for (k = 0; k < l; k++)
     m->q[k] = m->qg[k] + (m->qg[k] - m->q0[k]) * (1.0 - gam) / gam;
   pls__schedule_apply (m, s, t + h);
@@ -712,9 +773,14 @@ pls_step (pls__model *m, const pls__schedule *s, double t, double h, int *conver
   for (i = 0; i < m->nf; i++)
     {
       int c = m->col_node[i];
-      double sc = m->tol.atol_p
-                  + m->tol.rtol * PLS_MAX (pscale, PLS_MAX (fabs (m->p0[c]), fabs (m->p[c])));
-      double r = fabs (m->dp[c]) / sc;
+      double x0, x1, d = pls__node_measure (m, (size_t) c, m->p[c], m->dp[c], m->ev[i], &x1);
+      double sc, r;
+
+      /* A pocket is measured against its size at the start alone (x0, not
+       * x1): one that the step blew up must not pass on its own new size. */
+      pls__node_measure (m, (size_t) c, m->p0[c], 0.0, 0.0, &x0);
+      sc = m->tol.atol_p + m->tol.rtol * PLS_MAX (pscale, PLS_MAX (fabs (x0), fabs (m->p[c])));
+      r = fabs (d) / sc;
 
       if (!(r <= worst))
         {

@@ -226,13 +226,14 @@ pls_model_alloc (pls__model *m)
   m->shut = pls__calloc (a, l + 1, 1);
   m->algebraic = pls__calloc (a, l + 1, 1);
   m->on = pls__calloc (a, l + 1, 1);
-  if (!m->chamber_node || !m->on || !m->shut || !m->algebraic || !m->nodes || !m->links || !m->segments || !m->chamber
-      || !m->elem_link || !m->app_elem || !m->app_link || !m->open || !m->col_node
+  if (!m->chamber_node || !m->on || !m->shut || !m->algebraic || !m->nodes || !m->links
+      || !m->segments || !m->chamber || !m->elem_link || !m->app_elem || !m->app_link || !m->open || !m->col_node
       || !m->active)
     return PLS_ERR_NOMEM;
   {
     double **nv[] = { &m->p, &m->p0, &m->pg, &m->hist_v, &m->fv0, &m->fvg, &m->fv1,
-                      &m->rn, &m->dp, &m->ev, &m->pred_p0, &m->pred_pg, &m->head };
+                      &m->rn, &m->dp, &m->ev, &m->pred_p0, &m->pred_pg, &m->head,
+                      &m->xs };
     double **lv[] = { &m->q, &m->q0, &m->qg, &m->hist_q, &m->fq0, &m->fqg, &m->fq1,
                       &m->g, &m->rl, &m->dq, &m->eq, &m->h, &m->dh, &m->qint,
                       &m->stroke, &m->gap_end, &m->pred_q0, &m->pred_qg };
@@ -274,7 +275,7 @@ pls__model_free (pls__model *m)
     double *v[] = { m->p, m->p0, m->pg, m->hist_v, m->fv0, m->fvg, m->fv1, m->rn, m->dp,
                     m->ev, m->head, m->q, m->q0, m->qg, m->hist_q, m->fq0, m->fqg, m->fq1, m->g,
                     m->rl, m->dq, m->eq, m->h, m->dh, m->qint, m->stroke,
-                    m->gap_end, m->pred_p0, m->pred_pg, m->pred_q0, m->pred_qg };
+                    m->gap_end, m->pred_p0, m->pred_pg, m->pred_q0, m->pred_qg, m->xs };
     size_t i;
 
     for (i = 0; i < sizeof v / sizeof v[0]; i++)
@@ -627,6 +628,8 @@ pls__model_new (const pls_network *net, const pls__model_options *o, pls__model 
                 pls_laminar_shortcut (&net->fluid, &e->u.line, l->scale, l);
                 m->nodes[na].compliance += 0.5 * cp * dx;
                 m->nodes[nb].compliance += 0.5 * cp * dx;
+                m->nodes[na].volume += 0.5 * area * dx;
+                m->nodes[nb].volume += 0.5 * area * dx;
                 if (s < n - 1)
                   {
                     pls__tnode *nd = &m->nodes[nb];
@@ -718,7 +721,12 @@ pls__model_new (const pls_network *net, const pls__model_options *o, pls__model 
           continue;
         }
       if (nd->compliance < PLS_NODE_FLOOR_VOLUME / net->fluid.bulk_modulus && nd->acc < 0)
-        nd->compliance += PLS_NODE_FLOOR_VOLUME / net->fluid.bulk_modulus;
+        {
+          nd->compliance += PLS_NODE_FLOOR_VOLUME / net->fluid.bulk_modulus;
+          nd->volume += PLS_NODE_FLOOR_VOLUME;
+        }
+      if (nd->acc < 0)
+        pls__pocket_init (nd);
       nd->col = (int) m->nf;
       m->col_node[m->nf++] = (int) i;
     }

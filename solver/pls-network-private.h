@@ -116,21 +116,12 @@ pls_status pls__finding_add (pls_finding_list *list, const pls_allocator *a,
 #endif
   ;
 
-/* A liquid cannot be pulled below its vapour pressure: below it the
- * column separates (cavitation), which the lumped model does not follow.
- * The limit here is absolute zero in gauge terms at one standard
- * atmosphere (ISO 2533: 101 325 Pa); the vapour pressure of adhesives and
- * coatings at room temperature is a few kPa at most (from memory), so the
- * check errs on the side of saying too late, never too early. */
+/* A liquid cannot be pulled below its vapour pressure: there the column
+ * separates (cavitation; the time-domain model follows it, pls-pocket.c).
+ * The vapour pressure is taken as absolute zero in gauge terms at one
+ * standard atmosphere (ISO 2533: 101 325 Pa); that of adhesives and
+ * coatings at room temperature is a few kPa at most (from memory). */
 #define PLS_CAVITATION_PRESSURE (-101325.0)
-
-/* Adds a warning with code (pls-findings.c) naming the node with the
- * lowest of pmin (n_nodes, Pa gauge) when any is below
- * PLS_CAVITATION_PRESSURE; run names the run in the message ("firing
- * cycle", "shutdown"). */
-pls_status pls__cavitation_finding (pls_finding_list *list, const pls_allocator *a,
-                                    const pls_network *net, const double *pmin,
-                                    size_t n_nodes, const char *code, const char *run);
 
 /* ---- steady result (pls-steady.c) -------------------------------------- */
 

@@ -55,6 +55,7 @@ typedef struct
   double safe;
   double window;      /* confirmation window, s                           */
   double below_since; /* last time every node fell below safe; -1: above  */
+  double *p_low;      /* model nodes: lowest pressure of the run, Pa      */
   /* every accepted step's end, for the series */
   double *t;      /* cap */
   double *p;      /* cap x (n_nodes + n_elements): pressures, then flows */
@@ -135,6 +136,7 @@ pls_decay_step (void *user_data, pls__model *m, double t0, double tg, double t1)
         r->node_safe[i] = cross;
     }
   (void) tg;
+  pls__pocket_track (m, d->p_low);
   if (!all_safe)
     d->below_since = -1.0;
   else if (d->below_since < 0.0)
@@ -232,8 +234,10 @@ pls_solve_shutdown (const pls_network *net, const pls_transient_options *options
   parent = pls__malloc (a, m->n_nodes * sizeof *parent);
   drains = pls__calloc (a, m->n_nodes, 1);
   trapped_model = pls__calloc (a, m->n_nodes, 1);
-  if (!parent || !drains || !trapped_model)
+  d.p_low = pls__malloc (a, m->n_nodes * sizeof *d.p_low);
+  if (!parent || !drains || !trapped_model || !d.p_low)
     goto nomem;
+  memcpy (d.p_low, m->p, m->n_nodes * sizeof *d.p_low);
   for (i = 0; i < m->n_nodes; i++)
     parent[i] = (int) i;
   for (k = 0; k < m->n_links; k++)
@@ -314,22 +318,9 @@ pls_solve_shutdown (const pls_network *net, const pls_transient_options *options
                            o->shutdown_time) != PLS_OK)
     goto nomem;
 
-  /* The lowest pressure of each node over the run's steps. */
-  {
-    double *pmin = pls__calloc (a, n, sizeof (double));
-    size_t j, w = n + r->n_elements;
-
-    if (pmin == NULL)
-      goto nomem;
-    for (i = 0; i < n; i++)
-      for (pmin[i] = d.p[i], j = 1; j < d.count; j++)
-        pmin[i] = fmin (pmin[i], d.p[j * w + i]);
-    st = pls__cavitation_finding (&r->findings, a, net, pmin, n, "shutdown-cavitation",
-                                  "shutdown");
-    pls__free (a, pmin);
-    if (st != PLS_OK)
-      goto nomem;
-  }
+  if (pls__pocket_finding (&r->findings, a, m, d.p_low, "shutdown-cavitation", "shutdown")
+      != PLS_OK)
+    goto nomem;
 
   /* Series: the run's steps resampled evenly from the start to the safe
    * time (to the run's end when it never got there). */
@@ -382,6 +373,7 @@ out:
   pls__free (a, trapped_model);
   pls__free (a, d.t);
   pls__free (a, d.p);
+  pls__free (a, d.p_low);
   pls__model_free (m);
   pls_shutdown_result_free (r);
   return st;

@@ -61,6 +61,12 @@ typedef struct
 typedef struct
 {
   double compliance;  /* linear part dV/dp, m^3/Pa (fluid + wall)           */
+  double volume;      /* liquid held, m^3                                   */
+  /* Free gas (pls-pocket.c): pocket volume g / (p - PLS_CAVITATION_PRESSURE),
+   * g in m^3 Pa; below pocket_floor (Pa absolute) its tangent.  g = 0 for
+   * fixed nodes and gas chambers. */
+  double pocket_g;
+  double pocket_floor;
   double elevation;   /* m                                                  */
   int fixed;          /* 1: pressure given                                  */
   double fixed_pressure; /* Pa gauge                                        */
@@ -158,6 +164,9 @@ struct pls__model
   double *fv0, *fq0, *fvg, *fqg, *fv1, *fq1; /* f at the three points       */
   double *g, *rl, *rn, *dp, *dq, *ev, *eq; /* n_links / nf / n_links ...   */
   double *h, *dh;                /* n_links: law at q                      */
+  double *xs;                    /* n_nodes: |x| of each node at the stage's
+                                    start, the scale of its Newton updates
+                                    (pls__node_measure)                    */
   double *qint;                  /* n_links: integral of q over the run    */
   double *stroke;                /* n_links: pumps' volume in this stroke  */
   double *gap_end;               /* n_links: end of a pump's changeover gap
@@ -242,19 +251,104 @@ void pls__model_set_air (pls__model *m, int air_on, double air_pressure);
 double pls__chamber_volume (const pls__model *m, const pls__tnode *nd, double p,
                             double *slope);
 
+/* ---- the free gas of a liquid node (pls-pocket.c) ------------------------- */
+
+/* Sets a liquid node's free gas from its volume. */
+void pls__pocket_init (pls__tnode *nd);
+/* Growth of the gas pocket of a node at gauge pressure p over its size at
+ * one atmosphere (m^3), and its slope dVg/dp (<= 0, m^3/Pa).  Isothermal,
+ * g / p_abs, less the tangent at one atmosphere:
+ *   Vg = g (p_atm - p_abs)^2 / (p_abs p_atm^2)   below one atmosphere,
+ * 0 above, so that a line working above atmospheric pressure costs one
+ * comparison per node and sees no gas at all (the tangent takes off
+ * g / p_atm, 1e-7 of the node's volume, from a pocket of any size that
+ * matters).  Below the floor, the tangent there, so that a trial point of
+ * Newton's beyond vacuum has a finite volume. */
+static inline double
+pls__pocket_volume (const pls__tnode *nd, double p, double *slope)
+{
+  const double t = PLS_ATMOSPHERE, g = nd->pocket_g;
+  double pa = p - PLS_CAVITATION_PRESSURE, f = nd->pocket_floor, v, d;
+
+  if (pa >= t)
+    {
+      *slope = 0.0;
+      return 0.0;
+    }
+  if (pa > f)
+    {
+      d = t - pa;
+      *slope = -g * (t + pa) * d / (t * t * pa * pa);
+      return g * d * d / (pa * t * t);
+    }
+  d = t - f;
+  v = g * d * d / (f * t * t);
+  *slope = -g * (t + f) * d / (t * t * f * f);
+  return v - *slope * (f - pa);
+}
+/* Absolute pressure, as a share of an atmosphere, below which a node's gas
+ * pocket is taken into account in its Newton update and error measure:
+ * above it, the gas's share of the slope is below 2 % (alpha 1e-7, K 1.5
+ * GPa). */
+#define PLS_POCKET_NEAR 0.1
+/* The pressure at which a node with a gas pocket holds the stored volume
+ * v (the inverse of pls__node_volume). */
+double pls__pocket_pressure (const pls__tnode *nd, double v);
+/* The update dp of node i at pressure p, computed on a nodal matrix with
+ * the node's slope dV/dp = slope, as the change of its stored volume over
+ * its liquid compliance, and in *x its stored volume over that compliance:
+ * the coordinates in which a pocket is measured by its volume (dp and p
+ * themselves while the pocket is negligible).  For the error measures. */
+static inline double
+pls__node_measure (const pls__model *m, size_t i, double p, double dp, double slope, double *x)
+{
+  const pls__tnode *nd = &m->nodes[i];
+
+  *x = p;
+  if (nd->pocket_g > 0.0 && p - PLS_CAVITATION_PRESSURE < PLS_POCKET_NEAR * PLS_ATMOSPHERE)
+    {
+      double sg;
+
+      *x = p - pls__pocket_volume (nd, p, &sg) / nd->compliance;
+      return dp * slope / nd->compliance;
+    }
+  return dp;
+}
+
+/* Lowers p_low (n_nodes, Pa) to the pressures of the step just taken (its
+ * inner stage and end); for a run's step callback. */
+void pls__pocket_track (const pls__model *m, double *p_low);
+/* Adds a warning with code when the liquid parted at some node (p_low:
+ * its lowest pressures), naming the part with the largest cavity; run
+ * names the run in the message ("firing cycle", "shutdown").  The
+ * finding's value is that cavity's volume (m^3), its limit the vapour
+ * pressure taken (Pa gauge). */
+pls_status pls__pocket_finding (pls_finding_list *list, const pls_allocator *a,
+                                const pls__model *m, const double *p_low, const char *code,
+                                const char *run);
+
 /* Stored volume of model node i at pressure p (m^3, from p = 0) and its
- * slope dV/dp: linear but for the chambers (inline: the Newton loop calls
- * it for every node). */
+ * slope dV/dp: the liquid's compression less its gas pocket's growth, and
+ * the chambers' gas law (inline: the Newton loop calls it for every
+ * node). */
 static inline double
 pls__node_volume (const pls__model *m, size_t i, double p, double *slope)
 {
   const pls__tnode *nd = &m->nodes[i];
+  double v = nd->compliance * p, s = nd->compliance;
 
   if (nd->acc >= 0)
     return pls__chamber_volume (m, nd, p, slope);
+  if (nd->pocket_g > 0.0)
+    {
+      double sg;
+
+      v -= pls__pocket_volume (nd, p, &sg);
+      s -= sg;
+    }
   if (slope != NULL)
-    *slope = nd->compliance;
-  return nd->compliance * p;
+    *slope = s;
+  return v;
 }
 /* Sets the valve openings for time t from a schedule. */
 void pls__schedule_apply (pls__model *m, const pls__schedule *s, double t);

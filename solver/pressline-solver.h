@@ -630,9 +630,11 @@ void pls_cycle_result_volumes (const pls_cycle_result *r, double *pumped, double
 /* Findings: "no-recovery" (a node not back within the recovery fraction
  * before the next shot, warning), "shot-uniformity" (a shot outside the
  * uniformity tolerance of the mean, warning), "not-periodic" (max_cycles
- * reached, warning), "cycle-cavitation" (warning: a node's model pressure
- * below about -1 bar gauge, where a real liquid column would part; value
- * the lowest, limit -101 325 Pa). */
+ * reached, warning), "cycle-cavitation" (the liquid parted near vacuum
+ * and a cavity opened: warning, or information when the cavity stayed
+ * below 1 % of the liquid at its node; element (a line) or node where the
+ * largest one opened, value its volume in m^3, limit the vapour pressure
+ * taken, -101 325 Pa gauge). */
 size_t pls_cycle_finding_count (const pls_cycle_result *r);
 const pls_finding *pls_cycle_finding (const pls_cycle_result *r, size_t index);
 

@@ -90,6 +90,9 @@ pl_application_startup (GApplication *app)
 
   G_APPLICATION_CLASS (pl_application_parent_class)->startup (app);
 
+  /* The name the desktop shows for the program, and under which GTK files
+   * its entries in the recently used list. */
+  g_set_application_name (_("Pressline"));
   self->settings = g_settings_new (APP_ID);
   g_action_map_add_action_entries (G_ACTION_MAP (app), app_actions,
                                    G_N_ELEMENTS (app_actions), app);

@@ -521,7 +521,11 @@ pl_canvas_pinch_cb (GtkGestureZoom *gesture,
 
   if (scale <= 0 || self->pinch_last_scale <= 0)
     return;
-  if (!gtk_gesture_get_bounding_box_center (GTK_GESTURE (gesture), &cx, &cy))
+  /* The centre of the touch points; a gesture with no points in hand
+   * (driven by its signals alone, as in tests) has no last event to ask
+   * about, which GTK would report as a critical: the middle then. */
+  if (!gtk_gesture_is_active (GTK_GESTURE (gesture))
+      || !gtk_gesture_get_bounding_box_center (GTK_GESTURE (gesture), &cx, &cy))
     {
       cx = self->vp.width / 2;
       cy = self->vp.height / 2;

@@ -12,10 +12,11 @@
 #include <string.h>
 
 #include "pl-print.h"
+#include "pl-results-wait.h"
 #include "pl-window-private.h"
 
 static PlExportSettings last_settings = {
-  PL_WORK_ORDER_PDF, PL_PAPER_A4, PL_ORIENTATION_PORTRAIT, PL_WORK_ORDER_DEFAULT_DPI
+  PL_WORK_ORDER_PDF, PL_PAPER_A4, PL_ORIENTATION_AUTO, PL_WORK_ORDER_DEFAULT_DPI
 };
 
 const PlExportSettings *
@@ -25,8 +26,8 @@ pl_export_dialog_get_settings (void)
 }
 
 gboolean
-pl_export_dialog_write (PlWindow *window, GFile *file, const PlExportSettings *settings,
-                        GError **error)
+pl_export_dialog_write (PlWindow *window, PlResults *results, GFile *file,
+                        const PlExportSettings *settings, GPtrArray *removed, GError **error)
 {
   g_autofree char *path = NULL;
   g_autoptr (PlWorkOrder) wo = NULL;
@@ -48,9 +49,87 @@ pl_export_dialog_write (PlWindow *window, GFile *file, const PlExportSettings *s
   format = pl_work_order_format_from_filename (path);
   if (format == PL_N_WORK_ORDER_FORMATS)
     format = settings->format;
-  pl_paper_get_size (settings->paper, settings->orientation, &w, &h);
-  wo = pl_print_make_work_order (window, w, h);
-  return pl_work_order_write (wo, format, settings->dpi, path, error);
+  pl_paper_get_size (settings->paper,
+                     pl_orientation_resolve (settings->orientation, settings->paper,
+                                             pl_window_get_document (window)),
+                     &w, &h);
+  wo = pl_print_make_work_order (window, results, w, h);
+  return pl_work_order_write_full (wo, format, settings->dpi, path, removed, error);
+}
+
+char *
+pl_export_dialog_describe (GFile *file, GPtrArray *removed)
+{
+  g_autofree char *name = g_file_get_basename (file);
+  g_autoptr (GString) names = g_string_new (NULL);
+
+  if (removed == NULL || removed->len == 0)
+    /* Translators: a brief message after an export; %s is a file name. */
+    return g_strdup_printf (_("Work order written to %s"), name);
+  for (guint i = 0; i < removed->len; i++)
+    {
+      g_autofree char *base = g_path_get_basename (g_ptr_array_index (removed, i));
+
+      if (i > 0)
+        /* Translators: between the names of removed files. */
+        g_string_append (names, _(", "));
+      g_string_append (names, base);
+    }
+  return g_strdup_printf (
+    /* Translators: a brief message after an export; the first %s is a file
+     * name, the second a list of file names. */
+    ngettext ("Work order written to %s; removed %s, a sheet left from an earlier export",
+              "Work order written to %s; removed %s, sheets left from an earlier export",
+              removed->len),
+    name, names->str);
+}
+
+typedef struct
+{
+  GFile *file;
+  PlExportSettings settings;
+} PendingExport;
+
+static void
+pending_export_free (gpointer data)
+{
+  PendingExport *p = data;
+
+  g_object_unref (p->file);
+  g_free (p);
+}
+
+static void
+export_when_solved_cb (PlWindow *window, PlResults *results, gpointer data)
+{
+  PendingExport *p = data;
+  g_autoptr (GPtrArray) removed = g_ptr_array_new_with_free_func (g_free);
+  g_autoptr (GError) error = NULL;
+  g_autofree char *text = NULL;
+
+  if (results == NULL)
+    return;   /* cancelled: nothing written */
+  if (!pl_export_dialog_write (window, results, p->file, &p->settings, removed, &error))
+    {
+      pl_file_ops_show_error (window, _("The work order could not be exported"),
+                              error->message);
+      return;
+    }
+  text = pl_export_dialog_describe (p->file, removed);
+  pl_window_show_toast (window, text);
+}
+
+void
+pl_export_dialog_write_when_solved (PlWindow *window, GFile *file,
+                                    const PlExportSettings *settings)
+{
+  PendingExport *p = g_new0 (PendingExport, 1);
+
+  g_return_if_fail (PL_IS_WINDOW (window) && G_IS_FILE (file) && settings != NULL);
+  p->file = g_object_ref (file);
+  p->settings = *settings;
+  pl_results_wait (window, _("Export Work Order"), export_when_solved_cb, p,
+                   pending_export_free);
 }
 
 /* --- the dialog --- */
@@ -95,19 +174,9 @@ chooser_response_cb (GtkNativeDialog *native, int response, gpointer data)
   if (response == GTK_RESPONSE_ACCEPT)
     {
       g_autoptr (GFile) file = gtk_file_chooser_get_file (GTK_FILE_CHOOSER (native));
-      g_autoptr (GError) error = NULL;
 
-      if (file != NULL && !pl_export_dialog_write (window, file, &last_settings, &error))
-        pl_file_ops_show_error (window, _("The work order could not be exported"),
-                                error->message);
-      else if (file != NULL)
-        {
-          g_autofree char *name = g_file_get_basename (file);
-          /* Translators: a brief message after an export; %s is a file name. */
-          g_autofree char *text = g_strdup_printf (_("Work order written to %s"), name);
-
-          pl_window_show_toast (window, text);
-        }
+      if (file != NULL)
+        pl_export_dialog_write_when_solved (window, file, &last_settings);
     }
   g_object_unref (native);
   g_object_unref (window);
@@ -187,7 +256,9 @@ pl_export_dialog_show (PlWindow *window)
                             _("SVG drawing, a file per sheet"),
                             _("PNG image, a file per sheet"), NULL };
   const char *papers[PL_N_PAPERS + 1] = { NULL };
-  const char *orientations[] = { _("Portrait"), _("Landscape"), NULL };
+  /* In the order of PlOrientation. */
+  const char *orientations[] = { _("Portrait"), _("Landscape"),
+                                 _("Automatic, by the diagram's shape"), NULL };
   GtkWidget *dialog, *grid, *note;
 
   g_return_if_fail (PL_IS_WINDOW (window));
@@ -218,6 +289,9 @@ pl_export_dialog_show (PlWindow *window)
   gtk_drop_down_set_selected (d->paper, last_settings.paper);
   gtk_drop_down_set_selected (d->orientation, last_settings.orientation);
   gtk_spin_button_set_value (d->dpi, last_settings.dpi);
+  gtk_widget_set_tooltip_text (GTK_WIDGET (d->orientation),
+                               _("Automatic turns the sheets to landscape when the diagram is "
+                                 "wider than tall by more than the paper's own proportion."));
   gtk_widget_set_tooltip_text (GTK_WIDGET (d->dpi),
                                _("Dots per inch of the PNG images: 150 for the screen, "
                                  "300 for a printer."));
@@ -227,7 +301,9 @@ pl_export_dialog_show (PlWindow *window)
   add_row (GTK_GRID (grid), 2, _("_Orientation"), GTK_WIDGET (d->orientation));
   d->dpi_label = add_row (GTK_GRID (grid), 3, _("_Resolution (dpi)"), GTK_WIDGET (d->dpi));
   note = gtk_label_new (_("SVG and PNG sheets after the first are saved beside the file "
-                          "with -2, -3, … before the extension."));
+                          "with -2, -3, … before the extension. Exporting again with fewer "
+                          "sheets removes the numbered sheets of an earlier export that are "
+                          "left over."));
   gtk_label_set_wrap (GTK_LABEL (note), TRUE);
   gtk_label_set_max_width_chars (GTK_LABEL (note), 44);
   gtk_label_set_xalign (GTK_LABEL (note), 0.0);

@@ -451,6 +451,7 @@ pl_presentation_new (GtkWindow *parent, PlDocument *doc, PlUndoStack *undo,
   pl_readouts_set_document (self->readouts, doc);
   pl_stage_set_units (self->stage, &self->units);
   pl_what_if_set_document (self->what_if, doc, undo);
+  pl_what_if_set_scheduler (self->what_if, scheduler);
   pl_what_if_set_units (self->what_if, &self->units);
   self->changed_id = g_signal_connect (doc, "changed", G_CALLBACK (doc_changed_cb), self);
   g_signal_connect_object (scheduler, "fast-results", G_CALLBACK (results_cb), self, 0);

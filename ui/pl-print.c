@@ -14,22 +14,15 @@
 #include "pl-window-private.h"
 
 PlWorkOrder *
-pl_print_make_work_order (PlWindow *window, double width_mm, double height_mm)
+pl_print_make_work_order (PlWindow *window, PlResults *results, double width_mm,
+                          double height_mm)
 {
   PlDocument *doc = pl_window_get_document (window);
-  PlResults *full = pl_solve_scheduler_get_full_results (pl_window_get_scheduler (window));
   g_autoptr (PlDocument) copy = pl_document_copy (doc);
-  g_autoptr (PlResults) results = NULL;
   g_autofree char *path = NULL;
   PlWorkOrderOptions opts;
 
-  if (full != NULL && pl_results_get_revision (full) == pl_document_get_revision (doc)
-      && pl_results_get_transient_state (full) != PL_TRANSIENT_PENDING)
-    results = pl_results_ref (full);
-  else
-    /* Cannot be cancelled: NULL is impossible without a cancellable. */
-    results = pl_solve_scheduler_solve_sync (copy, NULL, NULL);
-
+  g_return_val_if_fail (results != NULL, NULL);
   pl_work_order_options_init (&opts);
   opts.width_mm = width_mm;
   opts.height_mm = height_mm;
@@ -44,8 +37,10 @@ static void
 begin_print_cb (GtkPrintOperation *op, GtkPrintContext *context, gpointer data)
 {
   PlWindow *window = data;
+  PlResults *results = g_object_get_data (G_OBJECT (op), "pl-results");
   /* In mm (the operation's unit), the whole paper (full page). */
-  PlWorkOrder *wo = pl_print_make_work_order (window, gtk_print_context_get_width (context),
+  PlWorkOrder *wo = pl_print_make_work_order (window, results,
+                                              gtk_print_context_get_width (context),
                                               gtk_print_context_get_height (context));
 
   g_object_set_data_full (G_OBJECT (op), "pl-work-order", wo, g_object_unref);
@@ -71,8 +66,8 @@ end_print_cb (GtkPrintOperation *op, GtkPrintContext *context, gpointer data)
 }
 
 GtkPrintOperationResult
-pl_print_run (PlWindow *window, GtkPrintOperationAction action, const char *export_filename,
-              GError **error)
+pl_print_run (PlWindow *window, PlResults *results, GtkPrintOperationAction action,
+              const char *export_filename, GError **error)
 {
   g_autoptr (GtkPrintOperation) op = gtk_print_operation_new ();
   const char *number = pl_part_get_text (pl_document_get_title (pl_window_get_document (window)),
@@ -83,6 +78,7 @@ pl_print_run (PlWindow *window, GtkPrintOperationAction action, const char *expo
                          : g_strdup (_("Work order"));
 
   g_return_val_if_fail (PL_IS_WINDOW (window), GTK_PRINT_OPERATION_RESULT_ERROR);
+  g_return_val_if_fail (results != NULL, GTK_PRINT_OPERATION_RESULT_ERROR);
 
   gtk_print_operation_set_job_name (op, job);
   /* Sheets have their own margins: draw on the whole paper. */
@@ -91,6 +87,8 @@ pl_print_run (PlWindow *window, GtkPrintOperationAction action, const char *expo
   gtk_print_operation_set_embed_page_setup (op, TRUE);
   if (export_filename != NULL)
     gtk_print_operation_set_export_filename (op, export_filename);
+  g_object_set_data_full (G_OBJECT (op), "pl-results", pl_results_ref (results),
+                          (GDestroyNotify) pl_results_unref);
   g_signal_connect (op, "begin-print", G_CALLBACK (begin_print_cb), window);
   g_signal_connect (op, "draw-page", G_CALLBACK (draw_page_cb), window);
   g_signal_connect (op, "end-print", G_CALLBACK (end_print_cb), window);

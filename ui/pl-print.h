@@ -13,18 +13,20 @@
 G_BEGIN_DECLS
 
 /* A work order of the window's document as it is now, on a sheet of
- * width x height mm in the window's units: from the newest full results
- * when they belong to the present revision, else after running every
- * solve now (the cycle too, so the readings while firing are known; a
- * fraction of a second for the samples).  The document is copied, so
- * later edits do not touch the sheets. */
-PlWorkOrder *pl_print_make_work_order (PlWindow *window, double width_mm, double height_mm);
+ * width x height mm in the window's units, with results: full results of
+ * the present revision (pl_results_wait gives them without blocking the
+ * main loop).  The document is copied, so later edits do not touch the
+ * sheets. */
+PlWorkOrder *pl_print_make_work_order (PlWindow *window, PlResults *results, double width_mm,
+                                       double height_mm);
 
-/* Prints the work order: action is GTK_PRINT_OPERATION_ACTION_PRINT_DIALOG
- * for the editor's Print command, or _EXPORT with export_filename (a PDF)
- * for tests.  Blocks until the dialog is done.  The result of
- * gtk_print_operation_run; with _ERROR, error says why. */
-GtkPrintOperationResult pl_print_run (PlWindow *window, GtkPrintOperationAction action,
+/* Prints the work order with results (as above): action is
+ * GTK_PRINT_OPERATION_ACTION_PRINT_DIALOG for the editor's Print command,
+ * or _EXPORT with export_filename (a PDF) for tests.  Blocks until the
+ * dialog is done.  The result of gtk_print_operation_run; with _ERROR,
+ * error says why. */
+GtkPrintOperationResult pl_print_run (PlWindow *window, PlResults *results,
+                                      GtkPrintOperationAction action,
                                       const char *export_filename, GError **error);
 
 G_END_DECLS

@@ -9,6 +9,7 @@
 #include <glib/gi18n.h>
 #include <math.h>
 
+#include "pl-accumulator-fit.h"
 #include "pl-command.h"
 #include "pl-part-type.h"
 
@@ -59,9 +60,14 @@ struct _PlWhatIf
   GtkSwitch *acc_switch;
   GtkWidget *acc_name;
   GtkWidget *message;
+  GtkWidget *fit_note;
 
   PlDocument *doc;
   PlUndoStack *undo;
+  PlSolveScheduler *scheduler;   /* for sizing an accumulator to fit */
+  /* The precharge control's value while the layout has no accumulator:
+   * what a fitted one gets (NAN: half the idle pressure at its node). */
+  double planned_precharge;
   gulong changed_id;
   PlUnitPrefs units;
   gboolean refreshing;        /* setting sliders from the document */
@@ -131,6 +137,81 @@ from_slider (guint c, double x)
   return controls[c].log ? pow (10.0, x) : x;
 }
 
+/* The longest on-time the document accepts (pl-part-types.c): every
+ * applicator's firing delay, the on-time and the closing ramp must fit in
+ * one firing period, 1 / cycle rate.  NAN without a document. */
+static double
+on_time_cap (PlWhatIf *self)
+{
+  const PlPart *scenario;
+  double latest_delay = 0.0;
+
+  if (self->doc == NULL)
+    return NAN;
+  scenario = pl_document_get_scenario (self->doc);
+  for (guint i = 0; i < pl_document_get_n_parts (self->doc); i++)
+    {
+      const PlPart *part = pl_document_get_part (self->doc, i);
+
+      if (pl_part_get_part_type (part)->kind == PL_PART_APPLICATOR)
+        latest_delay = MAX (latest_delay, pl_part_get_number (part, "firing-delay"));
+    }
+  return 1.0 / pl_part_get_number (scenario, "cycle-rate") - latest_delay
+         - pl_part_get_number (scenario, "close-ramp");
+}
+
+/* The range a control may take now: its own, and for the on-time the
+ * opening ramp at least and the cap above at most. */
+static void
+range_of (PlWhatIf *self, guint c, double *lo, double *hi)
+{
+  *lo = controls[c].lo;
+  *hi = controls[c].hi;
+  if (g_strcmp0 (controls[c].key, PL_WHAT_IF_ON_TIME) == 0 && self->doc != NULL)
+    {
+      double cap = on_time_cap (self);
+      double open_ramp = pl_part_get_number (pl_document_get_scenario (self->doc), "open-ramp");
+
+      *lo = MAX (*lo, open_ramp);
+      if (isfinite (cap) && cap > *lo)
+        *hi = MIN (*hi, cap);
+    }
+}
+
+/* Three significant digits, towards lo..hi where rounding left them. */
+static double
+round_within (double v, double lo, double hi)
+{
+  double mag = pow (10.0, floor (log10 (v)) - 2.0);
+  double r = round (v / mag) * mag;
+
+  if (r > hi)
+    r = floor (v / mag) * mag;
+  if (r < lo)
+    r = ceil (v / mag) * mag;
+  return r;
+}
+
+/* The on-time slider stops where the document stops taking it, and its
+ * tooltip says why. */
+static void
+update_on_time_range (PlWhatIf *self, guint c)
+{
+  double lo, hi;
+  g_autofree char *cap = NULL;
+  g_autofree char *tip = NULL;
+
+  range_of (self, c, &lo, &hi);
+  gtk_range_set_range (self->scales[c], to_slider (c, lo), to_slider (c, hi));
+  cap = pl_unit_format (hi, PL_QUANTITY_TIME, &self->units, 3, PL_UNIT_DECIMAL_FROM_LOCALE);
+  tip = g_strdup_printf (
+    /* Translators: %s is a time, "0.247 s". */
+    _("Up to %s: every applicator's firing delay, the on-time and the closing time must fit "
+      "in one firing period (1 / firing rate), and the on-time must not be shorter than the "
+      "opening time."), cap);
+  gtk_widget_set_tooltip_text (GTK_WIDGET (self->scales[c]), tip);
+}
+
 static void
 show_value (PlWhatIf *self, guint c, double v)
 {
@@ -148,10 +229,30 @@ show_value (PlWhatIf *self, guint c, double v)
   gtk_label_set_text (GTK_LABEL (self->values[c]), text);
 }
 
+/* An accumulator this panel could fit to a layout without one, sized for
+ * the present state with precharge (NAN: the default); FALSE when there is
+ * none (no pump, no applicator, not solved yet, a precharge too high). */
+static gboolean
+plan_fit (PlWhatIf *self, double precharge, PlAccumulatorFit *fit, GError **error)
+{
+  PlResults *fast = self->scheduler != NULL
+                    ? pl_solve_scheduler_get_fast_results (self->scheduler) : NULL;
+
+  if (self->doc == NULL)
+    return FALSE;
+  return pl_accumulator_fit_plan (self->doc, fast, precharge, fit, error);
+}
+
 static void
 refresh (PlWhatIf *self)
 {
-  const PlPart *acc;
+  const PlPart *acc = find_target (self, TARGET_ACCUMULATOR);
+  PlAccumulatorFit fit;
+  /* Whether one can go in at all, by the default precharge: a planned
+   * precharge that is too high is refused when the switch is turned on,
+   * with the reason, and stays on its control to be lowered. */
+  gboolean can_fit = acc == NULL && self->before_removal == NULL
+                     && plan_fit (self, NAN, &fit, NULL);
 
   self->refreshing = TRUE;
   for (guint c = 0; c < N_CONTROLS; c++)
@@ -160,7 +261,14 @@ refresh (PlWhatIf *self)
       double v = part != NULL ? pl_part_get_number (part, param_of (self, c)) : NAN;
       g_autofree char *name = NULL;
 
+      /* Without an accumulator the precharge control sets the precharge
+       * of the one the switch would fit. */
+      if (controls[c].target == TARGET_ACCUMULATOR && part == NULL && can_fit)
+        v = isfinite (self->planned_precharge) ? self->planned_precharge : fit.precharge;
+
       gtk_widget_set_sensitive (GTK_WIDGET (self->scales[c]), isfinite (v));
+      if (g_strcmp0 (controls[c].key, PL_WHAT_IF_ON_TIME) == 0)
+        update_on_time_range (self, c);
       if (controls[c].param == NULL && part != NULL)
         {
           /* The viscosity control sets the law's own parameter: its name. */
@@ -184,11 +292,12 @@ refresh (PlWhatIf *self)
       else
         gtk_label_set_text (GTK_LABEL (self->values[c]), "–");
     }
-  acc = find_target (self, TARGET_ACCUMULATOR);
   gtk_switch_set_active (self->acc_switch, acc != NULL);
   gtk_switch_set_state (self->acc_switch, acc != NULL);
   gtk_widget_set_sensitive (GTK_WIDGET (self->acc_switch),
-                            acc != NULL || self->before_removal != NULL);
+                            acc != NULL || self->before_removal != NULL || can_fit);
+  if (acc == NULL)
+    gtk_widget_set_visible (self->fit_note, FALSE);
   self->refreshing = FALSE;
 }
 
@@ -218,7 +327,7 @@ value_changed_cb (GtkRange *range, PlWhatIf *self)
   const PlPart *part;
   gint64 now = g_get_monotonic_time ();
   gboolean merge;
-  double v;
+  double v, lo, hi;
 
   if (self->refreshing || self->undo == NULL)
     return;
@@ -226,15 +335,19 @@ value_changed_cb (GtkRange *range, PlWhatIf *self)
     ;
   g_return_if_fail (c < N_CONTROLS);
   part = find_target (self, controls[c].target);
-  if (part == NULL)
-    return;
   /* Three significant digits: what the value label shows is what is set. */
   v = from_slider (c, gtk_range_get_value (range));
-  {
-    double mag = pow (10.0, floor (log10 (v)) - 2.0);
-
-    v = round (v / mag) * mag;
-  }
+  range_of (self, c, &lo, &hi);
+  v = round_within (v, lo, hi);
+  if (part == NULL && controls[c].target == TARGET_ACCUMULATOR)
+    {
+      /* No accumulator yet: the value waits for the switch. */
+      self->planned_precharge = v;
+      show_value (self, c, v);
+      return;
+    }
+  if (part == NULL)
+    return;
   if (v == pl_part_get_number (part, param_of (self, c)))
     return;
   merge = self->last_change[c] != 0 && now - self->last_change[c] < PL_WHAT_IF_MERGE_MS * 1000;
@@ -298,6 +411,45 @@ restore_command (PlWhatIf *self)
                                   (PlCommand *const *) cmds->pdata, cmds->len);
 }
 
+/* A layout without an accumulator gets one at the applicators' feed node,
+ * sized by the rule of pl-accumulator-fit.h; the note says what was done
+ * and by which rule (the presentation's footer carries the cautions about
+ * stored energy). */
+static void
+fit_accumulator (PlWhatIf *self)
+{
+  g_autoptr (GError) error = NULL;
+  PlAccumulatorFit fit;
+  const PlPart *feed, *acc;
+  g_autofree char *volume = NULL;
+  g_autofree char *precharge = NULL;
+  g_autofree char *note = NULL;
+
+  if (!plan_fit (self, self->planned_precharge, &fit, &error))
+    {
+      say (self, error->message);
+      return;
+    }
+  feed = pl_document_find_part (self->doc, fit.part_id);
+  if (!push (self, pl_accumulator_fit_command (self->doc, &fit), FALSE))
+    return;
+  acc = find_target (self, TARGET_ACCUMULATOR);
+  volume = pl_unit_format (fit.gas_volume, PL_QUANTITY_VOLUME, &self->units, 3,
+                           PL_UNIT_DECIMAL_FROM_LOCALE);
+  precharge = pl_unit_format (fit.precharge, PL_QUANTITY_PRESSURE, &self->units, 3,
+                              PL_UNIT_DECIMAL_FROM_LOCALE);
+  note = g_strdup_printf (
+    /* Translators: the accumulator's tag, the tag of the part it is fitted
+     * at, a volume and a pressure. */
+    _("What-if: %s fitted at %s, gas volume %s, precharge %s. Sized to give one shot of "
+      "every applicator while the pressure there falls to 90 %% of idle (common practice, "
+      "no source). Undo takes it out."),
+    acc != NULL ? pl_part_get_tag (acc) : "", pl_part_get_tag (feed), volume, precharge);
+  refresh (self);
+  gtk_label_set_text (GTK_LABEL (self->fit_note), note);
+  gtk_widget_set_visible (self->fit_note, TRUE);
+}
+
 static gboolean
 acc_state_set_cb (GtkSwitch *sw, gboolean on, PlWhatIf *self)
 {
@@ -323,6 +475,12 @@ acc_state_set_cb (GtkSwitch *sw, gboolean on, PlWhatIf *self)
       if (cmd != NULL)
         push (self, cmd, FALSE);
     }
+  else if (on && acc == NULL)
+    {
+      refresh (self);
+      fit_accumulator (self);
+      return TRUE;
+    }
   refresh (self);
   return TRUE;
 }
@@ -339,6 +497,7 @@ pl_what_if_dispose (GObject *object)
   PlWhatIf *self = PL_WHAT_IF (object);
 
   pl_what_if_set_document (self, NULL, NULL);
+  g_clear_object (&self->scheduler);
   g_clear_object (&self->before_removal);
   g_clear_pointer (&self->removed_id, g_free);
   g_clear_pointer (&self->grid, gtk_widget_unparent);
@@ -369,6 +528,7 @@ pl_what_if_init (PlWhatIf *self)
   guint row = 0;
 
   pl_unit_prefs_init (&self->units, PL_UNIT_SYSTEM_SI);
+  self->planned_precharge = NAN;
   self->grid = gtk_grid_new ();
   grid = GTK_GRID (self->grid);
   gtk_grid_set_row_spacing (grid, 6);
@@ -380,6 +540,13 @@ pl_what_if_init (PlWhatIf *self)
   gtk_widget_set_halign (GTK_WIDGET (self->acc_switch), GTK_ALIGN_START);
   gtk_accessible_update_property (GTK_ACCESSIBLE (self->acc_switch),
                                   GTK_ACCESSIBLE_PROPERTY_LABEL, _("Accumulator fitted"), -1);
+  gtk_widget_set_tooltip_text (
+    GTK_WIDGET (self->acc_switch),
+    /* xgettext:no-c-format */
+    _("Off takes the accumulator out. On a layout without one, on fits one at the node that "
+      "feeds the applicators, sized to give one shot of every applicator while the pressure "
+      "there falls to 90 % of idle (common practice, no source), with the precharge set "
+      "below."));
   g_signal_connect (self->acc_switch, "state-set", G_CALLBACK (acc_state_set_cb), self);
   for (guint c = 0; c < N_CONTROLS; c++)
     {
@@ -414,7 +581,13 @@ pl_what_if_init (PlWhatIf *self)
   gtk_label_set_max_width_chars (GTK_LABEL (self->message), 40);
   gtk_widget_add_css_class (self->message, "error");
   gtk_widget_set_visible (self->message, FALSE);
-  gtk_grid_attach (grid, self->message, 0, (int) row, 3, 1);
+  gtk_grid_attach (grid, self->message, 0, (int) row++, 3, 1);
+  self->fit_note = name_label ("");
+  gtk_label_set_wrap (GTK_LABEL (self->fit_note), TRUE);
+  gtk_label_set_max_width_chars (GTK_LABEL (self->fit_note), 40);
+  gtk_widget_add_css_class (self->fit_note, "dim-label");
+  gtk_widget_set_visible (self->fit_note, FALSE);
+  gtk_grid_attach (grid, self->fit_note, 0, (int) row, 3, 1);
   refresh (self);
 }
 
@@ -438,6 +611,23 @@ pl_what_if_set_document (PlWhatIf *self, PlDocument *doc, PlUndoStack *undo)
     self->last_change[c] = 0;
   if (gtk_widget_get_parent (self->grid) != NULL)
     refresh (self);
+}
+
+void
+pl_what_if_set_scheduler (PlWhatIf *self, PlSolveScheduler *scheduler)
+{
+  g_return_if_fail (PL_IS_WHAT_IF (self));
+  g_set_object (&self->scheduler, scheduler);
+  if (gtk_widget_get_parent (self->grid) != NULL)
+    refresh (self);
+}
+
+const char *
+pl_what_if_get_fit_note (PlWhatIf *self)
+{
+  g_return_val_if_fail (PL_IS_WHAT_IF (self), "");
+  return gtk_widget_get_visible (self->fit_note) ? gtk_label_get_text (GTK_LABEL (self->fit_note))
+                                                 : "";
 }
 
 void

@@ -9,13 +9,17 @@
  * dragged.  Changes of one control that follow each other within
  * PL_WHAT_IF_MERGE_MS are folded into one undo step (one drag, one step).
  * Removing the accumulator is a remove command; putting it back re-adds
- * the same part with its values and wires, as a second step.
+ * the same part with its values and wires, as a second step.  On a layout
+ * that never had one, switching it on fits one as a what-if step (see
+ * pl-accumulator-fit.h): at the applicators' feed node, sized from the
+ * fresh fast results, with the precharge control's value.
  */
 #pragma once
 
 #include <gtk/gtk.h>
 
 #include "pl-document.h"
+#include "pl-solve-scheduler.h"
 #include "pl-undo-stack.h"
 #include "pl-units.h"
 
@@ -39,6 +43,9 @@ GtkWidget *pl_what_if_new (void);
 /* The document and the stack its edits go to (references kept). */
 void pl_what_if_set_document (PlWhatIf *self, PlDocument *doc, PlUndoStack *undo);
 void pl_what_if_set_units (PlWhatIf *self, const PlUnitPrefs *units);
+/* Where the fast results for sizing a fitted accumulator come from
+ * (a reference is kept; NULL: none can be fitted). */
+void pl_what_if_set_scheduler (PlWhatIf *self, PlSolveScheduler *scheduler);
 
 /* For tests: a control's slider (NULL for an unknown key) and the
  * accumulator's switch. */
@@ -46,5 +53,8 @@ GtkRange *pl_what_if_get_control (PlWhatIf *self, const char *key);
 GtkSwitch *pl_what_if_get_accumulator_switch (PlWhatIf *self);
 /* The last refusal shown ("" when none). */
 const char *pl_what_if_get_message (PlWhatIf *self);
+/* What the last fitted accumulator got and by which rule ("" when none is
+ * shown). */
+const char *pl_what_if_get_fit_note (PlWhatIf *self);
 
 G_END_DECLS

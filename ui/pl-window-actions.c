@@ -16,6 +16,7 @@
 #include "pl-export-dialog.h"
 #include "pl-presentation.h"
 #include "pl-print.h"
+#include "pl-results-wait.h"
 #include "pl-window-private.h"
 
 /* One step of the zoom keys and menu items: five steps double the zoom
@@ -74,23 +75,28 @@ static void
 action_export_work_order_to (GtkWidget *widget, const char *name, GVariant *param)
 {
   g_autoptr (GFile) file = g_file_new_for_path (g_variant_get_string (param, NULL));
+
+  pl_export_dialog_write_when_solved (PL_WINDOW (widget), file,
+                                      pl_export_dialog_get_settings ());
+}
+
+/* Printing waits for the full results like the export (pl-results-wait.h). */
+static void
+print_when_solved_cb (PlWindow *window, PlResults *results, gpointer data)
+{
   g_autoptr (GError) error = NULL;
 
-  if (!pl_export_dialog_write (PL_WINDOW (widget), file, pl_export_dialog_get_settings (),
-                               &error))
-    pl_file_ops_show_error (PL_WINDOW (widget), _("The work order could not be exported"),
-                            error->message);
+  if (results != NULL
+      && pl_print_run (window, results, GTK_PRINT_OPERATION_ACTION_PRINT_DIALOG, NULL, &error)
+         == GTK_PRINT_OPERATION_RESULT_ERROR)
+    pl_file_ops_show_error (window, _("The work order could not be printed"),
+                            error != NULL ? error->message : "");
 }
 
 static void
 action_print (GtkWidget *widget, const char *name, GVariant *param)
 {
-  g_autoptr (GError) error = NULL;
-
-  if (pl_print_run (PL_WINDOW (widget), GTK_PRINT_OPERATION_ACTION_PRINT_DIALOG, NULL, &error)
-      == GTK_PRINT_OPERATION_RESULT_ERROR)
-    pl_file_ops_show_error (PL_WINDOW (widget), _("The work order could not be printed"),
-                            error != NULL ? error->message : "");
+  pl_results_wait (PL_WINDOW (widget), _("Print"), print_when_solved_cb, NULL, NULL);
 }
 
 static void
@@ -272,16 +278,17 @@ pl_window_set_tooltip (GtkWidget *widget, const char *text)
     gtk_widget_set_tooltip_text (widget, text);
 }
 
-/* The undo and redo buttons name the step they take back or again. */
+/* The undo and redo buttons name the step they take back or again and
+ * the parts it acts on. */
 static void
 pl_window_update_undo_tooltips (PlWindow *self)
 {
-  const char *undo = pl_undo_stack_get_undo_label (self->undo);
-  const char *redo = pl_undo_stack_get_redo_label (self->undo);
-  /* Translators: a button's tooltip naming the step, "Undo Set Bore (Ctrl+Z)". */
+  g_autofree char *undo = pl_undo_stack_describe_undo (self->undo);
+  g_autofree char *redo = pl_undo_stack_describe_redo (self->undo);
+  /* Translators: a button's tooltip naming the step, "Undo Change Bore H2 (Ctrl+Z)". */
   g_autofree char *undo_tip = undo != NULL ? g_strdup_printf (_("Undo %s (Ctrl+Z)"), undo)
                                            : g_strdup (_("Undo (Ctrl+Z)"));
-  /* Translators: a button's tooltip naming the step, "Redo Move (Shift+Ctrl+Z)". */
+  /* Translators: a button's tooltip naming the step, "Redo Move 3 Parts (Shift+Ctrl+Z)". */
   g_autofree char *redo_tip = redo != NULL
                               ? g_strdup_printf (_("Redo %s (Shift+Ctrl+Z)"), redo)
                               : g_strdup (_("Redo (Shift+Ctrl+Z)"));

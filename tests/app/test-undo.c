@@ -595,6 +595,129 @@ START_TEST (test_labels)
 }
 END_TEST
 
+/* Tooltips name the parts a step acts on by the tags they show: one part
+ * by its tag, several by their count; a delete that took wires with its
+ * parts counts items; a redo of an undone add still knows the tag. */
+START_TEST (test_descriptions_name_the_parts)
+{
+  g_autoptr (PlDocument) doc = pl_document_new ();
+  g_autoptr (PlUndoStack) stack = pl_undo_stack_new (doc);
+  g_autoptr (PlCommand) add_hose = pl_command_new_add_part ("hose", NULL, 0, 0);
+  g_autoptr (PlCommand) add_gauge = pl_command_new_add_part ("gauge", NULL, 40, 0);
+  g_autoptr (PlCommand) add_tee = pl_command_new_add_part ("tee", NULL, 80, 0);
+  g_autoptr (PlCommand) bore = pl_command_new_set_number ("p1", "bore", 0.01);
+  g_autoptr (PlCommand) rename = pl_command_new_set_tag ("p1", "Feed hose");
+  const char *three[] = { "p1", "p2", "p3" };
+  g_autoptr (PlCommand) move = pl_command_new_move (three, 3, 5, 0);
+  g_autoptr (PlCommand) scenario = pl_command_new_set_scenario_number ("cycle-rate", 2.0);
+  g_autofree char *text = NULL;
+  g_autofree char *expected_add = NULL;
+  g_autofree char *expected_bore = NULL;
+  const char *hose_tag;
+
+  ck_assert_ptr_null (pl_undo_stack_describe_undo (stack));
+  ck_assert (pl_undo_stack_push (stack, add_hose, NULL));
+  hose_tag = pl_part_get_tag (pl_document_find_part (doc, "p1"));
+  text = pl_undo_stack_describe_undo (stack);
+  expected_add = g_strdup_printf ("Add Hose %s", hose_tag);
+  ck_assert_str_eq (text, expected_add);
+  g_clear_pointer (&text, g_free);
+  ck_assert (pl_undo_stack_push (stack, add_gauge, NULL));
+  ck_assert (pl_undo_stack_push (stack, add_tee, NULL));
+  ck_assert (pl_undo_stack_push (stack, bore, NULL));
+  text = pl_undo_stack_describe_undo (stack);
+  expected_bore = g_strdup_printf ("Change Bore %s", hose_tag);
+  ck_assert_str_eq (text, expected_bore);
+  g_clear_pointer (&text, g_free);
+
+  /* The tag as shown now, after a rename. */
+  ck_assert (pl_undo_stack_push (stack, rename, NULL));
+  ck_assert (pl_undo_stack_undo (stack));
+  ck_assert (pl_undo_stack_redo (stack));
+  text = pl_undo_stack_describe_undo (stack);
+  ck_assert_str_eq (text, "Rename Feed hose");
+  g_clear_pointer (&text, g_free);
+
+  /* A drag of three parts is one step named by their count. */
+  pl_undo_stack_begin_group (stack, "Move");
+  ck_assert (pl_undo_stack_push (stack, move, NULL));
+  pl_undo_stack_end_group (stack);
+  text = pl_undo_stack_describe_undo (stack);
+  ck_assert_str_eq (text, "Move 3 Parts");
+  g_clear_pointer (&text, g_free);
+  ck_assert (pl_undo_stack_undo (stack));
+  text = pl_undo_stack_describe_redo (stack);
+  ck_assert_str_eq (text, "Move 3 Parts");
+  g_clear_pointer (&text, g_free);
+
+  /* The scenario is no part: the bare label. */
+  ck_assert (pl_undo_stack_push (stack, scenario, NULL));
+  text = pl_undo_stack_describe_undo (stack);
+  ck_assert_str_eq (text, pl_undo_stack_get_undo_label (stack));
+  g_clear_pointer (&text, g_free);
+}
+END_TEST
+
+/* A delete names what it took out, and an undone add what it will make. */
+START_TEST (test_descriptions_of_removed_parts)
+{
+  g_autoptr (PlDocument) doc = pl_document_new ();
+  g_autoptr (PlUndoStack) stack = pl_undo_stack_new (doc);
+  g_autoptr (PlCommand) add_a = pl_command_new_add_part_full ("hose", NULL, "HA", 0, 0, 0, FALSE);
+  g_autoptr (PlCommand) add_b = pl_command_new_add_part_full ("hose", NULL, "HB", 60, 0, 0, FALSE);
+  g_autoptr (PlCommand) wire = NULL;
+  g_autoptr (PlCommand) remove_a = pl_command_new_remove ((const char *const[]) { "p1" }, 1);
+  g_autoptr (PlCommand) remove_b = NULL;
+  g_autoptr (PlCommand) second = NULL;
+  g_autoptr (PlCommand) wires = NULL;
+  const PlPartType *hose = pl_part_type_lookup ("hose");
+  g_autofree char *text = NULL;
+
+  ck_assert (pl_undo_stack_push (stack, add_a, NULL));
+  ck_assert (pl_undo_stack_push (stack, add_b, NULL));
+  ck_assert (pl_undo_stack_undo (stack));
+  text = pl_undo_stack_describe_redo (stack);
+  ck_assert_str_eq (text, "Add Hose HB");
+  g_clear_pointer (&text, g_free);
+  ck_assert (pl_undo_stack_redo (stack));
+
+  wire = pl_command_new_add_wire (NULL, "p1", hose->ports[1].key, "p2", hose->ports[0].key,
+                                  NULL, 0);
+  ck_assert (pl_undo_stack_push (stack, wire, NULL));
+  text = pl_undo_stack_describe_undo (stack);
+  ck_assert_str_eq (text, "Connect");
+  g_clear_pointer (&text, g_free);
+
+  ck_assert (pl_undo_stack_push (stack, remove_a, NULL));
+  text = pl_undo_stack_describe_undo (stack);
+  ck_assert_str_eq (text, "Delete HA");
+  g_clear_pointer (&text, g_free);
+  ck_assert (pl_undo_stack_undo (stack));
+
+  /* A part with its wire is named by the part. */
+  remove_b = pl_command_new_remove ((const char *const[]) { "p2",
+                                                            pl_command_get_created_id (wire) },
+                                    2);
+  ck_assert (pl_undo_stack_push (stack, remove_b, NULL));
+  text = pl_undo_stack_describe_undo (stack);
+  ck_assert_str_eq (text, "Delete HB");
+  g_clear_pointer (&text, g_free);
+  ck_assert (pl_undo_stack_undo (stack));
+
+  /* Two wires alone are counted as items. */
+  second = pl_command_new_add_wire (NULL, "p1", hose->ports[0].key, "p2", hose->ports[1].key,
+                                    NULL, 0);
+  ck_assert (pl_undo_stack_push (stack, second, NULL));
+  wires = pl_command_new_remove ((const char *const[]) { pl_command_get_created_id (wire),
+                                                         pl_command_get_created_id (second) },
+                                 2);
+  ck_assert (pl_undo_stack_push (stack, wires, NULL));
+  text = pl_undo_stack_describe_undo (stack);
+  ck_assert_str_eq (text, "Delete 2 Items");
+  g_clear_pointer (&text, g_free);
+}
+END_TEST
+
 /* A group's undo emits one "changed", however many commands it holds. */
 START_TEST (test_group_one_signal)
 {
@@ -708,6 +831,8 @@ undo_suite (void)
   tcase_add_loop_test (tc_scripts, test_script, 0, G_N_ELEMENTS (scripts));
   suite_add_tcase (s, tc_scripts);
   tcase_add_test (tc_more, test_labels);
+  tcase_add_test (tc_more, test_descriptions_name_the_parts);
+  tcase_add_test (tc_more, test_descriptions_of_removed_parts);
   tcase_add_test (tc_more, test_group_one_signal);
   tcase_add_test (tc_more, test_random_walk);
   suite_add_tcase (s, tc_more);

@@ -28,6 +28,7 @@
 #include "pl-layout-writer.h"
 #include "pl-results.h"
 #include "pl-solve-scheduler.h"
+#include "pl-undo-stack.h"
 #include "pl-work-order.h"
 
 /* White space of any kind and length as one space: pdftotext breaks lines
@@ -481,6 +482,311 @@ START_TEST (test_pdf_papers)
 }
 END_TEST
 
+/* The page size pdfinfo reports for pdf, in points. */
+static void
+pdf_page_size (const char *pdf, double *w, double *h)
+{
+  const char *argv[] = { "pdfinfo", pdf, NULL };
+  g_autofree char *info = NULL;
+  g_autoptr (GRegex) re = g_regex_new ("Page size: +([0-9.]+) x ([0-9.]+) pts", 0, 0, NULL);
+  g_autoptr (GMatchInfo) m = NULL;
+  g_autofree char *pw = NULL, *ph = NULL;
+
+  ck_assert (g_spawn_sync (NULL, (char **) argv, NULL, G_SPAWN_SEARCH_PATH, NULL, NULL, &info,
+                           NULL, NULL, NULL));
+  ck_assert_msg (g_regex_match (re, info, 0, &m), "%s", info);
+  pw = g_match_info_fetch (m, 1);
+  ph = g_match_info_fetch (m, 2);
+  *w = g_ascii_strtod (pw, NULL);
+  *h = g_ascii_strtod (ph, NULL);
+}
+
+/* Runs the CLI with args (an export to pdf) and reads the page size. */
+static void
+export_page_size (const char *const *args, const char *pdf, double *w, double *h)
+{
+  CliRun r = spawn_cli_argv (args);
+
+  ck_assert_msg (r.status == 0, "exit %d: %s", r.status, r.err);
+  cli_run_clear (&r);
+  pdf_page_size (pdf, w, h);
+}
+
+/* The starved line turned a quarter: every part at (y, x) instead of
+ * (x, y), so the diagram stands taller than wide. */
+static char *
+tall_layout_file (void)
+{
+  g_autofree char *wide = sample_path ("carton-sealer-starved.pline");
+  g_autoptr (PlDocument) doc = pl_layout_read_file (wide, NULL);
+  g_autoptr (PlUndoStack) undo = NULL;
+  char *path = pl_tmpdir_path ("tall.pline");
+
+  ck_assert_ptr_nonnull (doc);
+  undo = pl_undo_stack_new (doc);
+  for (guint i = 0; i < pl_document_get_n_parts (doc); i++)
+    {
+      const PlPart *part = pl_document_get_part (doc, i);
+      const char *ids[] = { pl_part_get_id (part) };
+      double x = pl_part_get_x (part), y = pl_part_get_y (part);
+      g_autoptr (PlCommand) move = pl_command_new_move (ids, 1, y - x, x - y);
+
+      ck_assert (pl_undo_stack_push (undo, move, NULL));
+    }
+  ck_assert (pl_layout_write_file (doc, path, NULL));
+  return path;
+}
+
+/* Orientation "auto", the export's default: the wide starved line (about
+ * 480 x 100 mm, wider than A4's 297/210) goes landscape, the same line
+ * turned to stand tall goes portrait; an orientation asked for is kept. */
+START_TEST (test_auto_orientation)
+{
+  g_autofree char *wide = sample_path ("carton-sealer-starved.pline");
+  g_autofree char *tall = tall_layout_file ();
+  g_autofree char *pdf = pl_tmpdir_path ("auto.pdf");
+  g_autoptr (PlDocument) wide_doc = pl_layout_read_file (wide, NULL);
+  g_autoptr (PlDocument) tall_doc = pl_layout_read_file (tall, NULL);
+  double w, h;
+
+  ck_assert_int_eq (pl_orientation_resolve (PL_ORIENTATION_AUTO, PL_PAPER_A4, wide_doc),
+                    PL_ORIENTATION_LANDSCAPE);
+  ck_assert_int_eq (pl_orientation_resolve (PL_ORIENTATION_AUTO, PL_PAPER_A4, tall_doc),
+                    PL_ORIENTATION_PORTRAIT);
+  ck_assert_int_eq (pl_orientation_resolve (PL_ORIENTATION_PORTRAIT, PL_PAPER_A4, wide_doc),
+                    PL_ORIENTATION_PORTRAIT);
+  {
+    g_autoptr (PlDocument) empty = pl_document_new ();
+
+    ck_assert_int_eq (pl_orientation_resolve (PL_ORIENTATION_AUTO, PL_PAPER_A3, empty),
+                      PL_ORIENTATION_PORTRAIT);
+  }
+
+  {
+    const char *args[] = { "export", wide, "-o", pdf, NULL };
+
+    /* A4 landscape: 297 x 210 mm = 841.89 x 595.28 pt (72 pt per inch). */
+    export_page_size (args, pdf, &w, &h);
+    ck_assert_double_eq_tol (w, 841.89, 0.01);
+    ck_assert_double_eq_tol (h, 595.28, 0.01);
+  }
+  {
+    const char *args[] = { "export", tall, "-o", pdf, "--orientation", "auto", NULL };
+
+    export_page_size (args, pdf, &w, &h);
+    ck_assert_double_eq_tol (w, 595.28, 0.01);
+    ck_assert_double_eq_tol (h, 841.89, 0.01);
+  }
+  {
+    const char *args[] = { "export", wide, "-o", pdf, "--orientation", "portrait", NULL };
+
+    export_page_size (args, pdf, &w, &h);
+    ck_assert_double_eq_tol (w, 595.28, 0.01);
+  }
+}
+END_TEST
+
+/* A work order of the demo with extra hoses, n_extra of them: more parts
+ * rows, more sheets. */
+static PlWorkOrder *
+demo_work_order (guint n_extra)
+{
+  PlDocument *doc = NULL;
+  g_autoptr (PlResults) results = demo_results (&doc);
+  PlWorkOrderOptions opts;
+  PlWorkOrder *wo;
+
+  for (guint i = 0; i < n_extra; i++)
+    {
+      g_autoptr (PlCommand) add = pl_command_new_add_part ("hose", NULL, 400.0 + 70.0 * i,
+                                                           400.0);
+
+      ck_assert (pl_command_apply (add, doc, NULL));
+    }
+  if (n_extra > 0)
+    {
+      g_clear_pointer (&results, pl_results_unref);
+      results = pl_solve_scheduler_solve_sync (doc, NULL, NULL);
+    }
+  pl_work_order_options_init (&opts);
+  wo = pl_work_order_new (doc, results, &opts);
+  g_object_unref (doc);
+  return wo;
+}
+
+static const PlWorkOrderFormat stale_formats[] = { PL_WORK_ORDER_SVG, PL_WORK_ORDER_PNG };
+
+/* Exporting again to the same name with fewer sheets removes the sheets
+ * the first export left beyond the new count -- and only those: a gap in
+ * the numbering ends the run, and a file without Pressline's generator
+ * mark is never touched. */
+START_TEST (test_stale_sheets_removed)
+{
+  PlWorkOrderFormat format = stale_formats[_i];
+  const char *ext = pl_work_order_format_get_key (format);
+  g_autofree char *base = g_strdup_printf ("again.%s", ext);
+  g_autofree char *target = pl_tmpdir_path (base);
+  g_autoptr (PlWorkOrder) long_wo = demo_work_order (60);
+  g_autoptr (PlWorkOrder) short_wo = demo_work_order (0);
+  guint n_long = pl_work_order_get_n_sheets (long_wo);
+  guint n_short = pl_work_order_get_n_sheets (short_wo);
+  g_autoptr (GPtrArray) removed = g_ptr_array_new_with_free_func (g_free);
+  g_autoptr (GError) error = NULL;
+  g_autofree char *gap_name = pl_work_order_sheet_filename (target, n_long + 1);
+  g_autofree char *foreign_name = NULL;
+
+  ck_assert_uint_ge (n_long, n_short + 2);
+  ck_assert (pl_work_order_write (long_wo, format, 50.0, target, &error));
+  /* One of ours beyond a gap: not part of the run. */
+  {
+    g_autofree char *last = pl_work_order_sheet_filename (target, n_long - 1);
+
+    ck_assert (g_rename (last, gap_name) == 0);
+  }
+  ck_assert (pl_work_order_write_full (short_wo, format, 50.0, target, removed, &error));
+  /* Sheets n_short + 1 .. n_long - 1 (the last one moved past the gap). */
+  ck_assert_uint_eq (removed->len, n_long - 1 - n_short);
+  for (guint k = 0; k < n_long - 1; k++)
+    {
+      g_autofree char *name = pl_work_order_sheet_filename (target, k);
+
+      ck_assert_msg (g_file_test (name, G_FILE_TEST_EXISTS) == (k < n_short), "%s", name);
+      if (k >= n_short)
+        ck_assert_str_eq (g_ptr_array_index (removed, k - n_short), name);
+    }
+  ck_assert (g_file_test (gap_name, G_FILE_TEST_EXISTS));
+  g_unlink (gap_name);
+
+  /* A file of someone else's at the next number stays, and ends the run. */
+  g_ptr_array_set_size (removed, 0);
+  ck_assert (pl_work_order_write (long_wo, format, 50.0, target, &error));
+  foreign_name = pl_work_order_sheet_filename (target, n_short);
+  ck_assert (g_file_set_contents (foreign_name, "not a sheet of ours", -1, NULL));
+  ck_assert (pl_work_order_write_full (short_wo, format, 50.0, target, removed, &error));
+  ck_assert_uint_eq (removed->len, 0);
+  ck_assert (g_file_test (foreign_name, G_FILE_TEST_EXISTS));
+  {
+    g_autofree char *next = pl_work_order_sheet_filename (target, n_short + 1);
+
+    ck_assert (g_file_test (next, G_FILE_TEST_EXISTS));
+  }
+}
+END_TEST
+
+/* The generator marks themselves: an SVG sheet has the element in our
+ * namespace under <metadata>, a PNG sheet a tEXt "Software" chunk whose
+ * CRC is right by the PNG specification's own table-driven algorithm
+ * (ISO/IEC 15948 Annex D), written here independently of the exporter's. */
+static guint32
+spec_crc (const guchar *buf, gsize len)
+{
+  guint32 table[256];
+  guint32 c = 0xffffffffu;
+
+  for (guint32 n = 0; n < 256; n++)
+    {
+      guint32 t = n;
+
+      for (int k = 0; k < 8; k++)
+        t = (t & 1) ? 0xedb88320u ^ (t >> 1) : t >> 1;
+      table[n] = t;
+    }
+  for (gsize i = 0; i < len; i++)
+    c = table[(c ^ buf[i]) & 0xff] ^ (c >> 8);
+  return c ^ 0xffffffffu;
+}
+
+START_TEST (test_generator_marks)
+{
+  g_autoptr (PlWorkOrder) wo = demo_work_order (0);
+  g_autofree char *svg = pl_tmpdir_path ("mark.svg");
+  g_autofree char *png = pl_tmpdir_path ("mark.png");
+  g_autofree char *data = NULL;
+  gsize len = 0, pos = 8;
+  gboolean found = FALSE;
+  xmlDocPtr doc;
+
+  ck_assert (pl_work_order_write (wo, PL_WORK_ORDER_SVG, 0, svg, NULL));
+  ck_assert (g_file_get_contents (svg, &data, &len, NULL));
+  doc = xmlReadMemory (data, (int) len, NULL, NULL, XML_PARSE_NONET);
+  ck_assert_ptr_nonnull (doc);
+  for (xmlNodePtr m = xmlDocGetRootElement (doc)->children; m != NULL; m = m->next)
+    if (m->type == XML_ELEMENT_NODE && xmlStrEqual (m->name, (const xmlChar *) "metadata"))
+      for (xmlNodePtr g = m->children; g != NULL; g = g->next)
+        if (g->type == XML_ELEMENT_NODE && g->ns != NULL
+            && xmlStrEqual (g->ns->href, (const xmlChar *) "https://pressline.org/ns/work-order"))
+          {
+            xmlChar *text = xmlNodeGetContent (g);
+
+            found = g_str_equal ((const char *) text, "Pressline " PACKAGE_VERSION);
+            xmlFree (text);
+          }
+  xmlFreeDoc (doc);
+  ck_assert (found);
+  g_clear_pointer (&data, g_free);
+
+  found = FALSE;
+  ck_assert (pl_work_order_write (wo, PL_WORK_ORDER_PNG, 50.0, png, NULL));
+  ck_assert (g_file_get_contents (png, &data, &len, NULL));
+  while (pos + 12 <= len && !found)
+    {
+      const guchar *p = (const guchar *) data + pos;
+      guint32 n = ((guint32) p[0] << 24) | ((guint32) p[1] << 16) | ((guint32) p[2] << 8) | p[3];
+      const guchar *crc = p + 8 + n;
+
+      ck_assert (pos + 12 + n <= len);
+      ck_assert_uint_eq (((guint32) crc[0] << 24) | ((guint32) crc[1] << 16)
+                         | ((guint32) crc[2] << 8) | crc[3], spec_crc (p + 4, 4 + n));
+      if (memcmp (p + 4, "tEXt", 4) == 0)
+        {
+          ck_assert_uint_eq (n, strlen ("Software") + 1 + strlen ("Pressline " PACKAGE_VERSION));
+          ck_assert (memcmp (p + 8, "Software\0Pressline " PACKAGE_VERSION, n) == 0);
+          found = TRUE;
+        }
+      pos += 12 + n;
+    }
+  ck_assert (found);
+}
+END_TEST
+
+/* The CLI says which sheets it removed: a fourth sheet of ours left beside
+ * a three-sheet export goes, by name. */
+START_TEST (test_cli_reports_removed_sheets)
+{
+  g_autofree char *layout = sample_path ("carton-sealer-starved.pline");
+  g_autofree char *svg = pl_tmpdir_path ("cli.svg");
+  const char *args[] = { "export", layout, "-o", svg, NULL };
+  CliRun r = spawn_cli_argv (args);
+  g_autoptr (PlDocument) doc = pl_layout_read_file (layout, NULL);
+  g_autoptr (PlResults) results = pl_solve_scheduler_solve_sync (doc, NULL, NULL);
+  g_autoptr (PlWorkOrder) wo = NULL;
+  g_autofree char *last = NULL, *extra = NULL, *contents = NULL, *expected = NULL;
+  PlWorkOrderOptions opts;
+  gsize len = 0;
+  guint n;
+
+  ck_assert_msg (r.status == 0, "%s", r.err);
+  cli_run_clear (&r);
+  pl_work_order_options_init (&opts);
+  pl_paper_get_size (PL_PAPER_A4, pl_orientation_resolve (PL_ORIENTATION_AUTO, PL_PAPER_A4,
+                                                          doc), &opts.width_mm, &opts.height_mm);
+  wo = pl_work_order_new (doc, results, &opts);
+  n = pl_work_order_get_n_sheets (wo);
+  last = pl_work_order_sheet_filename (svg, n - 1);
+  extra = pl_work_order_sheet_filename (svg, n);
+  ck_assert (g_file_get_contents (last, &contents, &len, NULL));
+  ck_assert (g_file_set_contents (extra, contents, (gssize) len, NULL));
+  r = spawn_cli_argv (args);
+  ck_assert_msg (r.status == 0, "%s", r.err);
+  expected = g_strdup_printf ("Removed %s, a sheet left from an earlier export with more "
+                              "sheets.", extra);
+  ck_assert_msg (r.out != NULL && strstr (r.out, expected) != NULL, "out: %s", r.out);
+  ck_assert (!g_file_test (extra, G_FILE_TEST_EXISTS));
+  ck_assert (g_file_test (last, G_FILE_TEST_EXISTS));
+  cli_run_clear (&r);
+}
+END_TEST
+
 /* --- long tables and missing figures --- */
 
 /* Sixty extra hoses make the parts list run over a sheet: the rest comes
@@ -715,6 +1021,10 @@ work_order_suite (void)
   tcase_add_loop_test (tp, test_png_size, 0, G_N_ELEMENTS (pngs));
   tcase_add_loop_test (tp, test_pdf_papers, 0, PL_N_PAPERS * PL_N_ORIENTATIONS);
   tcase_add_test (tp, test_failed_write_keeps_old_file);
+  tcase_add_test (tp, test_auto_orientation);
+  tcase_add_loop_test (tp, test_stale_sheets_removed, 0, G_N_ELEMENTS (stale_formats));
+  tcase_add_test (tp, test_generator_marks);
+  tcase_add_test (tp, test_cli_reports_removed_sheets);
   suite_add_tcase (s, tp);
 
   tcase_add_checked_fixture (tc, pl_tmpdir_setup, pl_tmpdir_teardown);

@@ -21,7 +21,13 @@ static inline PlApplication *
 pl_ui_test_app_new (void)
 {
   g_autoptr (GError) error = NULL;
-  PlApplication *app = pl_application_new ();
+  PlApplication *app;
+
+  /* g_application_run() names the program after argv[0]; a suite does
+   * not run it, and GTK's recently-used list needs the name. */
+  if (g_get_prgname () == NULL)
+    g_set_prgname ("pressline");
+  app = pl_application_new ();
 
   g_application_set_flags (G_APPLICATION (app),
                            G_APPLICATION_HANDLES_OPEN | G_APPLICATION_NON_UNIQUE);

@@ -16,7 +16,9 @@
 #include "pl-application.h"
 #include "pl-check.h"
 #include "pl-export-dialog.h"
+#include "pl-command.h"
 #include "pl-print.h"
+#include "pl-results-wait.h"
 #include "pl-tmpdir.h"
 #include "pl-ui-test.h"
 #include "pl-window.h"
@@ -59,9 +61,23 @@ count (const char *text, const char *needle)
   return n;
 }
 
-/* The action writes what the dialog would, with its last settings (A4
- * portrait, 150 dpi at first): a PDF with every sheet, or PNG sheets of
- * 1240 x 1754 pixels (ISO 216 A4, 210 x 297 mm, at 150 dpi). */
+/* Turns the main loop until path exists (the export waits for the
+ * worker's full results when they are stale; 60 s at most). */
+static void
+wait_for_file (const char *path)
+{
+  for (int i = 0; i < 30000 && !g_file_test (path, G_FILE_TEST_IS_REGULAR); i++)
+    {
+      g_main_context_iteration (NULL, FALSE);
+      g_usleep (2000);
+    }
+  ck_assert_msg (g_file_test (path, G_FILE_TEST_IS_REGULAR), "%s not written", path);
+}
+
+/* The action writes what the dialog would, with its last settings (A4,
+ * orientation auto, 150 dpi at first): a PDF with every sheet, or PNG
+ * sheets of 1754 x 1240 pixels (ISO 216 A4, 297 x 210 mm landscape, at
+ * 150 dpi: the demo's diagram is more than 1.41 times wider than tall). */
 START_TEST (test_export_action)
 {
   PlWindow *window = pl_ui_test_open_window (app, "samples/demo-glue-line.pline");
@@ -72,7 +88,7 @@ START_TEST (test_export_action)
 
   ck_assert (gtk_widget_activate_action (GTK_WIDGET (window), "win.export-work-order-to", "s",
                                          pdf));
-  ck_assert (g_file_test (pdf, G_FILE_TEST_IS_REGULAR));
+  wait_for_file (pdf);
   text = pdftotext (pdf);
   ck_assert_ptr_nonnull (strstr (text, "DEMO-0001"));
   ck_assert_ptr_nonnull (strstr (text, "Safety cautions"));
@@ -80,10 +96,11 @@ START_TEST (test_export_action)
 
   ck_assert (gtk_widget_activate_action (GTK_WIDGET (window), "win.export-work-order-to", "s",
                                          png));
+  wait_for_file (png);
   image = cairo_image_surface_create_from_png (png);
   ck_assert_int_eq (cairo_surface_status (image), CAIRO_STATUS_SUCCESS);
-  ck_assert_int_eq (cairo_image_surface_get_width (image), 1240);
-  ck_assert_int_eq (cairo_image_surface_get_height (image), 1754);
+  ck_assert_int_eq (cairo_image_surface_get_width (image), 1754);
+  ck_assert_int_eq (cairo_image_surface_get_height (image), 1240);
   cairo_surface_destroy (image);
   gtk_window_destroy (GTK_WINDOW (window));
 }
@@ -163,7 +180,10 @@ START_TEST (test_print_export)
   const char *of;
   guint n;
 
-  result = pl_print_run (window, GTK_PRINT_OPERATION_ACTION_EXPORT, pdf, &error);
+  pl_ui_test_wait_for_full (window);
+  result = pl_print_run (window,
+                         pl_solve_scheduler_get_full_results (pl_window_get_scheduler (window)),
+                         GTK_PRINT_OPERATION_ACTION_EXPORT, pdf, &error);
   ck_assert_msg (result == GTK_PRINT_OPERATION_RESULT_APPLY, "print: %d %s", result,
                  error ? error->message : "");
   ck_assert (g_file_test (pdf, G_FILE_TEST_IS_REGULAR));
@@ -182,6 +202,78 @@ START_TEST (test_print_export)
 }
 END_TEST
 
+static gboolean
+count_tick_cb (gpointer data)
+{
+  (*(guint *) data)++;
+  return G_SOURCE_CONTINUE;
+}
+
+/* An export asked for while the full results are stale waits for the
+ * worker instead of solving on the main thread: the action returns with
+ * nothing written and a waiting dialog up, the main loop keeps turning
+ * (a 1 ms timeout fires) until the results arrive, and the sheets
+ * then give the same numbers as an export of the fresh document.  Cancel
+ * in the dialog writes nothing. */
+START_TEST (test_export_waits_for_stale_results)
+{
+  PlWindow *window = pl_ui_test_open_window (app, "samples/carton-sealer-starved.pline");
+  PlDocument *doc = pl_window_get_document (window);
+  PlUndoStack *undo = pl_window_get_undo_stack (window);
+  const char *hose = pl_part_get_id (pl_document_find_part_by_tag (doc, "H1"));
+  g_autofree char *stale = g_build_filename (pl_tmpdir, "stale.pdf", NULL);
+  g_autofree char *fresh = g_build_filename (pl_tmpdir, "fresh.pdf", NULL);
+  g_autofree char *cancelled = g_build_filename (pl_tmpdir, "cancelled.pdf", NULL);
+  g_autofree char *stale_text = NULL, *fresh_text = NULL;
+  g_autoptr (PlCommand) longer = pl_command_new_set_number (hose, "length", 9.0);
+  g_autoptr (PlCommand) longer_still = pl_command_new_set_number (hose, "length", 12.0);
+  GtkWindow *wait_dialog;
+  guint ticks = 0, tick_id;
+
+  pl_ui_test_wait_for_full (window);
+  ck_assert (pl_undo_stack_push (undo, longer, NULL));
+  /* Stale now: the worker has the new revision. */
+  ck_assert (pl_results_get_revision (pl_solve_scheduler_get_full_results (
+               pl_window_get_scheduler (window))) != pl_document_get_revision (doc));
+  tick_id = g_timeout_add (1, count_tick_cb, &ticks);
+  ck_assert (gtk_widget_activate_action (GTK_WIDGET (window), "win.export-work-order-to", "s",
+                                         stale));
+  ck_assert (!g_file_test (stale, G_FILE_TEST_EXISTS));
+  wait_dialog = pl_results_wait_get_dialog (window);
+  ck_assert_ptr_nonnull (wait_dialog);
+  ck_assert (gtk_window_get_modal (wait_dialog));
+  /* The tick is due before the loop turns again, so a loop that turns
+   * dispatches it at least once before or with the results. */
+  g_usleep (2000);
+  wait_for_file (stale);
+  g_source_remove (tick_id);
+  ck_assert_msg (ticks >= 1, "the main loop turned %u times while waiting", ticks);
+  ck_assert_ptr_null (pl_results_wait_get_dialog (window));
+
+  /* The same state, fresh: the same sheets (the date and everything). */
+  pl_ui_test_wait_for_full (window);
+  ck_assert (gtk_widget_activate_action (GTK_WIDGET (window), "win.export-work-order-to", "s",
+                                         fresh));
+  ck_assert (g_file_test (fresh, G_FILE_TEST_IS_REGULAR));
+  stale_text = pdftotext (stale);
+  fresh_text = pdftotext (fresh);
+  ck_assert_str_eq (stale_text, fresh_text);
+
+  /* Stale again, then Cancel: nothing written, no dialog left. */
+  ck_assert (pl_undo_stack_push (undo, longer_still, NULL));
+  ck_assert (gtk_widget_activate_action (GTK_WIDGET (window), "win.export-work-order-to", "s",
+                                         cancelled));
+  wait_dialog = pl_results_wait_get_dialog (window);
+  ck_assert_ptr_nonnull (wait_dialog);
+  gtk_dialog_response (GTK_DIALOG (wait_dialog), GTK_RESPONSE_CANCEL);
+  ck_assert_ptr_null (pl_results_wait_get_dialog (window));
+  pl_ui_test_wait_for_full (window);
+  ck_assert (!g_file_test (cancelled, G_FILE_TEST_EXISTS));
+  pl_undo_stack_mark_clean (undo);
+  gtk_window_destroy (GTK_WINDOW (window));
+}
+END_TEST
+
 static Suite *
 export_suite (void)
 {
@@ -194,6 +286,7 @@ export_suite (void)
   tcase_add_test (tc, test_export_action);
   tcase_add_test (tc, test_export_dialog);
   tcase_add_test (tc, test_print_export);
+  tcase_add_test (tc, test_export_waits_for_stale_results);
   suite_add_tcase (s, tc);
   return s;
 }

@@ -23,9 +23,11 @@
 
 #include <gtk/gtk.h>
 #include <math.h>
+#include <string.h>
 
 #include "pl-application.h"
 #include "pl-check.h"
+#include "pl-command.h"
 #include "pl-presentation.h"
 #include "pl-results-series.h"
 #include "pl-ui-test.h"
@@ -76,6 +78,28 @@ enter (PlWindow *window)
     g_main_context_iteration (NULL, TRUE);
   pl_ui_test_spin (150);
   return p;
+}
+
+/* Leaves presentation mode once the worker is done, and closes the
+ * window without asking about the what-if edits. */
+static void
+leave_and_close (PlWindow *window, PlPresentation *p)
+{
+  pl_ui_test_wait_for_full (window);
+  ck_assert (gtk_widget_activate_action (GTK_WIDGET (p), "presentation.leave", NULL));
+  pl_undo_stack_mark_clean (pl_window_get_undo_stack (window));
+  gtk_window_destroy (GTK_WINDOW (window));
+  pl_ui_test_spin (10);
+}
+
+/* The layout's first accumulator, or NULL. */
+static const PlPart *
+first_accumulator (PlDocument *doc)
+{
+  for (guint i = 0; i < pl_document_get_n_parts (doc); i++)
+    if (pl_part_get_part_type (pl_document_get_part (doc, i))->kind == PL_PART_ACCUMULATOR)
+      return pl_document_get_part (doc, i);
+  return NULL;
 }
 
 static double
@@ -258,11 +282,112 @@ START_TEST (test_accumulator_switch_and_gauge)
   ck_assert_uint_eq (pl_document_get_n_wires (doc), n_wires);
   ck_assert_ptr_nonnull (pl_document_find_part_by_tag (doc, "A1"));
   ck_assert_uint_eq (pl_undo_stack_get_n_undo (undo), n_undo + 2);
+  leave_and_close (window, p);
+}
+END_TEST
+
+/* On the starved line, which has no accumulator, the switch fits one as
+ * a what-if at the manifold's feed node with the precharge control's
+ * value, says by which rule, lifts the lowest manifold pressure of the
+ * firing cycle, and one undo takes it out again. */
+START_TEST (test_fit_accumulator_to_starved_line)
+{
+  PlWindow *window = open_sample ("carton-sealer-starved.pline");
+  PlDocument *doc = pl_window_get_document (window);
+  PlUndoStack *undo = pl_window_get_undo_stack (window);
+  PlSolveScheduler *scheduler = pl_window_get_scheduler (window);
+  PlPresentation *p = enter (window);
+  PlWhatIf *what_if = pl_presentation_get_what_if (p);
+  GtkSwitch *sw = pl_what_if_get_accumulator_switch (what_if);
+  GtkRange *precharge = pl_what_if_get_control (what_if, PL_WHAT_IF_PRECHARGE);
+  const char *feed = pl_part_get_id (pl_document_find_part_by_tag (doc, "H1"));
+  g_autoptr (PlDocument) before = pl_document_copy (doc);
+  guint n_parts = pl_document_get_n_parts (doc), n_undo = pl_undo_stack_get_n_undo (undo);
+  const PlPart *acc = NULL;
+  double min_before, min_after;
+
+  ck_assert (pl_results_get_port_pressure (pl_solve_scheduler_get_full_results (scheduler),
+                                           feed, "b", PL_PRESSURE_CYCLE_MIN, &min_before));
+  pl_ui_test_save_shot (GTK_WIDGET (p), "presentation-starved-before-fit.png");
+  ck_assert (!gtk_switch_get_active (sw));
+  ck_assert (gtk_widget_get_sensitive (GTK_WIDGET (sw)));
+  ck_assert (gtk_widget_get_sensitive (GTK_WIDGET (precharge)));
+  /* 300 bar on the precharge control is far above the idle pressure: on
+   * is refused with the reason, nothing is added, the control stays. */
+  gtk_range_set_value (precharge, log10 (300e5));
+  gtk_switch_set_active (sw, TRUE);
+  pl_ui_test_spin (20);
+  ck_assert_uint_eq (pl_document_get_n_parts (doc), n_parts);
+  ck_assert (!gtk_switch_get_active (sw));
+  ck_assert_msg (strstr (pl_what_if_get_message (what_if), "precharge") != NULL, "message: %s",
+                 pl_what_if_get_message (what_if));
+  ck_assert (gtk_widget_get_sensitive (GTK_WIDGET (precharge)));
+  /* 20 bar on the precharge control, then on. */
+  gtk_range_set_value (precharge, log10 (20e5));
+  ck_assert_uint_eq (pl_undo_stack_get_n_undo (undo), n_undo);
+  gtk_switch_set_active (sw, TRUE);
+  pl_ui_test_spin (20);
+  ck_assert_uint_eq (pl_document_get_n_parts (doc), n_parts + 1);
+  ck_assert_uint_eq (pl_undo_stack_get_n_undo (undo), n_undo + 1);
+  acc = first_accumulator (doc);
+  ck_assert_ptr_nonnull (acc);
+  ck_assert_double_eq_tol (pl_part_get_number (acc, "precharge"), 20e5, 1e3);
+  ck_assert (gtk_switch_get_active (sw));
+  ck_assert_msg (strstr (pl_what_if_get_fit_note (what_if), "common practice, no source")
+                 != NULL, "note: %s", pl_what_if_get_fit_note (what_if));
   pl_ui_test_wait_for_full (window);
-  ck_assert (gtk_widget_activate_action (GTK_WIDGET (p), "presentation.leave", NULL));
-  pl_undo_stack_mark_clean (undo);
-  gtk_window_destroy (GTK_WINDOW (window));
-  pl_ui_test_spin (10);
+  ck_assert (pl_results_get_port_pressure (pl_solve_scheduler_get_full_results (scheduler),
+                                           feed, "b", PL_PRESSURE_CYCLE_MIN, &min_after));
+  ck_assert_msg (min_after > min_before, "%g Pa, was %g Pa", min_after, min_before);
+  pl_ui_test_spin (300);
+  pl_ui_test_save_shot (GTK_WIDGET (p), "presentation-starved-after-fit.png");
+  ck_assert (pl_undo_stack_undo (undo));
+  ck_assert (pl_document_equal (doc, before));
+  ck_assert (!gtk_switch_get_active (sw));
+  ck_assert_str_eq (pl_what_if_get_fit_note (what_if), "");
+  leave_and_close (window, p);
+}
+END_TEST
+
+/* The on-time slider ends where the document stops taking it: the firing
+ * period less the closing time (the starved line: 4 shots a second, 3 ms
+ * closing, no firing delays: 250 - 3 = 247 ms; arithmetic on the sample's
+ * figures), follows a change of the firing rate, and says why in its
+ * tooltip. */
+START_TEST (test_on_time_capped_by_firing_period)
+{
+  PlWindow *window = open_sample ("carton-sealer-starved.pline");
+  PlDocument *doc = pl_window_get_document (window);
+  PlUndoStack *undo = pl_window_get_undo_stack (window);
+  PlPresentation *p = enter (window);
+  PlWhatIf *what_if = pl_presentation_get_what_if (p);
+  GtkRange *on_time = pl_what_if_get_control (what_if, PL_WHAT_IF_ON_TIME);
+  GtkAdjustment *adj = gtk_range_get_adjustment (on_time);
+  g_autoptr (PlCommand) faster = pl_command_new_set_scenario_number ("cycle-rate", 5.0);
+  const PlPart *scenario = pl_document_get_scenario (doc);
+  double top;
+
+  /* Slider positions are log10 of seconds; the test reads them back. */
+  top = pow (10.0, gtk_adjustment_get_upper (adj));
+  ck_assert_double_eq_tol (top, 0.247, 1e-9);
+  ck_assert_msg (strstr (gtk_widget_get_tooltip_text (GTK_WIDGET (on_time)), "0.247 s")
+                 != NULL, "tooltip: %s", gtk_widget_get_tooltip_text (GTK_WIDGET (on_time)));
+  gtk_range_set_value (on_time, log10 (0.3));
+  pl_ui_test_spin (20);
+  ck_assert_str_eq (pl_what_if_get_message (what_if), "");
+  ck_assert_double_eq_tol (pl_part_get_number (scenario, "on-time"), 0.247, 1e-9);
+  ck_assert (pl_undo_stack_undo (undo));
+
+  /* 5 shots a second: 200 - 3 = 197 ms. */
+  ck_assert (pl_undo_stack_push (undo, faster, NULL));
+  pl_ui_test_spin (20);
+  top = pow (10.0, gtk_adjustment_get_upper (adj));
+  ck_assert_double_eq_tol (top, 0.197, 1e-9);
+  gtk_range_set_value (on_time, log10 (0.3));
+  pl_ui_test_spin (20);
+  ck_assert_str_eq (pl_what_if_get_message (what_if), "");
+  ck_assert_double_eq_tol (pl_part_get_number (scenario, "on-time"), 0.197, 1e-9);
+  leave_and_close (window, p);
 }
 END_TEST
 
@@ -278,6 +403,8 @@ presentation_suite (void)
   tcase_set_timeout (tc, 200);
   tcase_add_test (tc, test_teach_the_starved_line);
   tcase_add_test (tc, test_accumulator_switch_and_gauge);
+  tcase_add_test (tc, test_fit_accumulator_to_starved_line);
+  tcase_add_test (tc, test_on_time_capped_by_firing_period);
   suite_add_tcase (s, tc);
   return s;
 }
