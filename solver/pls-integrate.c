@@ -79,7 +79,7 @@
 #define PLS_NEWTON_RATE_FIRST 0.2
 #define PLS_NEWTON_FIRST 5.0
 /* ... and every gas chamber's volume balance holds to this fraction of
- * its pressure tolerance's volume (pls_chambers_balanced). */
+ * its pressure tolerance's volume (pls_curved_nodes_balanced). */
 #define PLS_CHAMBER_BALANCE 1e-6
 /* Secant retries of a step to locate a bladder port's switch. */
 #define PLS_EVENT_TRIES 8
@@ -373,7 +373,7 @@ static pls_status pls_algebraic_flow (const pls__model *m, size_t k, double dp, 
  * the curvature of its gas law over the update, which only a further
  * update removes. */
 static int
-pls_chambers_balanced (const pls__model *m, double kappa, double pscale)
+pls_curved_nodes_balanced (const pls__model *m, double kappa, double pscale)
 {
   const pls__tolerances *tol = &m->tol;
   size_t j;
@@ -626,7 +626,7 @@ pls_stage (pls__model *m, double kappa, int *converged, pls_error *err)
           double eta = pow (PLS_MAX (m->newton_rate, 1e-16), 0.8);
 
           if (eta / (1.0 - eta) * worst <= PLS_NEWTON_FRACTION
-              && pls_chambers_balanced (m, kappa, pscale))
+              && pls_curved_nodes_balanced (m, kappa, pscale))
             {
               *converged = 1;
               return PLS_OK;
