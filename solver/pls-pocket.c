@@ -64,8 +64,15 @@ pls__pocket_track (const pls__model *m, double *p_low)
 {
   size_t i;
 
+  /* Comparisons, not fmin: this runs over every node at every step, and
+   * fmin is a call into libm here. */
   for (i = 0; i < m->n_nodes; i++)
-    p_low[i] = fmin (p_low[i], fmin (m->pg[i], m->p[i]));
+    {
+      double lo = m->pg[i] < m->p[i] ? m->pg[i] : m->p[i];
+
+      if (lo < p_low[i])
+        p_low[i] = lo;
+    }
 }
 
 /* The network part a model node stands for: the node itself (*node), or
