@@ -21,19 +21,36 @@ static inline PlApplication *
 pl_ui_test_app_new (void)
 {
   g_autoptr (GError) error = NULL;
-  PlApplication *app;
+  PlApplication *application;
 
   /* g_application_run() names the program after argv[0]; a suite does
    * not run it, and GTK's recently-used list needs the name. */
   if (g_get_prgname () == NULL)
     g_set_prgname ("pressline");
-  app = pl_application_new ();
-
-  g_application_set_flags (G_APPLICATION (app),
+  application = pl_application_new ();
+  g_application_set_flags (G_APPLICATION (application),
                            G_APPLICATION_HANDLES_OPEN | G_APPLICATION_NON_UNIQUE);
-  ck_assert_msg (g_application_register (G_APPLICATION (app), NULL, &error),
+  ck_assert_msg (g_application_register (G_APPLICATION (application), NULL, &error),
                  "register: %s", error ? error->message : "");
-  return app;
+  return application;
+}
+
+/* The suite's one application: a second could not register its name on
+ * the bus while the first is alive.  For tcase_add_unchecked_fixture (tc,
+ * pl_ui_test_app_setup, pl_ui_test_app_teardown). */
+static PlApplication *app G_GNUC_UNUSED;
+
+static inline void
+pl_ui_test_app_setup (void)
+{
+  if (app == NULL)
+    app = pl_ui_test_app_new ();
+}
+
+static inline void
+pl_ui_test_app_teardown (void)
+{
+  g_clear_object (&app);
 }
 
 /* Turns the main loop for ms, bounded by the clock alone: while a tick
@@ -81,9 +98,9 @@ pl_ui_test_wait_for_full (PlWindow *window)
  * layout at path (from the source tree's top, "samples/X.pline") loaded
  * when path is not NULL. */
 static inline PlWindow *
-pl_ui_test_open_window (PlApplication *app, const char *path)
+pl_ui_test_open_window (PlApplication *application, const char *path)
 {
-  PlWindow *window = pl_window_new (app);
+  PlWindow *window = pl_window_new (application);
 
   gtk_window_set_default_size (GTK_WINDOW (window), 1400, 900);
   gtk_window_present (GTK_WINDOW (window));

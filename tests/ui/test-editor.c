@@ -29,24 +29,12 @@
 #include "pl-solve-indicator.h"
 #include "pl-window.h"
 
-static PlApplication *app;
-
 static void
 app_setup (void)
 {
-  /* One application for every test case: a second one could not register
-   * its name on the bus while the first is alive. */
-  if (app != NULL)
-    return;
   /* Frame statistics of the canvas (read when a canvas is made). */
   g_setenv ("PRESSLINE_FRAME_STATS", "1", TRUE);
-  app = pl_ui_test_app_new ();
-}
-
-static void
-app_teardown (void)
-{
-  g_clear_object (&app);
+  pl_ui_test_app_setup ();
 }
 
 static char *
@@ -1123,6 +1111,6 @@ main (int argc, char **argv)
 
   gtk_init ();
   status = pl_check_run (editor_suite ());
-  app_teardown ();
+  pl_ui_test_app_teardown ();
   return status;
 }

@@ -23,21 +23,6 @@
 #include "pl-ui-test.h"
 #include "pl-window.h"
 
-static PlApplication *app;
-
-/* One application for the suite: it can be registered on the bus once. */
-static void
-app_setup (void)
-{
-  app = pl_ui_test_app_new ();
-}
-
-static void
-app_teardown (void)
-{
-  g_clear_object (&app);
-}
-
 static char *
 pdftotext (const char *pdf)
 {
@@ -280,7 +265,7 @@ export_suite (void)
   Suite *s = suite_create ("export");
   TCase *tc = tcase_create ("editor");
 
-  tcase_add_unchecked_fixture (tc, app_setup, app_teardown);
+  tcase_add_unchecked_fixture (tc, pl_ui_test_app_setup, pl_ui_test_app_teardown);
   tcase_add_checked_fixture (tc, pl_tmpdir_setup, pl_tmpdir_teardown);
   tcase_set_timeout (tc, 120);
   tcase_add_test (tc, test_export_action);

@@ -33,20 +33,6 @@
 #include "pl-ui-test.h"
 #include "pl-window.h"
 
-static PlApplication *app;
-
-static void
-app_setup (void)
-{
-  app = pl_ui_test_app_new ();
-}
-
-static void
-app_teardown (void)
-{
-  g_clear_object (&app);
-}
-
 static PlWindow *
 open_sample (const char *name)
 {
@@ -399,7 +385,7 @@ presentation_suite (void)
 
   /* One application for the suite: a second one could not take the
    * first one's bus object while a window of it is still finalizing. */
-  tcase_add_unchecked_fixture (tc, app_setup, app_teardown);
+  tcase_add_unchecked_fixture (tc, pl_ui_test_app_setup, pl_ui_test_app_teardown);
   tcase_set_timeout (tc, 200);
   tcase_add_test (tc, test_teach_the_starved_line);
   tcase_add_test (tc, test_accumulator_switch_and_gauge);

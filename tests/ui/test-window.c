@@ -9,20 +9,6 @@
 #include "pl-ui-test.h"
 #include "pl-window.h"
 
-static PlApplication *app;
-
-static void
-app_setup (void)
-{
-  app = pl_ui_test_app_new ();
-}
-
-static void
-app_teardown (void)
-{
-  g_clear_object (&app);
-}
-
 static void
 wait_until_mapped (GtkWidget *widget)
 {
@@ -86,7 +72,7 @@ window_suite (void)
   Suite *s = suite_create ("window");
   TCase *tc = tcase_create ("main window");
 
-  tcase_add_unchecked_fixture (tc, app_setup, app_teardown);
+  tcase_add_unchecked_fixture (tc, pl_ui_test_app_setup, pl_ui_test_app_teardown);
   tcase_add_test (tc, test_window_opens_with_saved_size);
   tcase_add_test (tc, test_application_has_actions_and_icon);
   suite_add_tcase (s, tc);
