@@ -288,8 +288,9 @@ pls__pocket_volume (const pls__tnode *nd, double p, double *slope)
 }
 /* Absolute pressure, as a share of an atmosphere, below which a node's gas
  * pocket is taken into account in its Newton update and error measure:
- * above it, the gas's share of the slope is below 2 % (alpha 1e-7, K 1.5
- * GPa). */
+ * above it the gas's slope is at most 15 % of the liquid's (alpha 1e-7,
+ * K 1.5 GPa: alpha V / (0.01 p_atm) against V / K), mild enough for a
+ * plain update and measure in p. */
 #define PLS_POCKET_NEAR 0.1
 /* The pressure at which a node with a gas pocket holds the stored volume
  * v (the inverse of pls__node_volume). */
